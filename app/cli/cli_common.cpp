@@ -1,0 +1,68 @@
+#include "cli/cli_common.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+
+#include "io/cloud_file.h"
+#include "measures/registry.h"
+
+namespace barrow::cli {
+
+Cloud loadCloud(const std::string& path) {
+  auto loaded = readCloudFile(path);
+  if (!loaded) throw InputError{loaded.error.text()};
+  return std::move(*loaded.value);
+}
+
+std::vector<const Measure*> selectMeasures(const CliArgs& args) {
+  const auto& reg = MeasureRegistry::instance();
+  std::vector<const Measure*> out;
+  if (!args.has("measures")) {
+    out = reg.all();
+    if (out.empty()) throw InternalError{"no measure engine is built yet"};
+    return out;
+  }
+  for (const auto& id : splitList(*args.value("measures"))) {
+    if (const Measure* m = reg.find(id)) {
+      out.push_back(m);
+      continue;
+    }
+    const auto& known = designMeasureIds();
+    if (std::find(known.begin(), known.end(), id) != known.end())
+      throw InternalError{"measure '" + id + "' is not built yet in this version"};
+    std::string all;
+    for (const auto& k : known) all += (all.empty() ? "" : ",") + k;
+    throw InputError{"unknown measure '" + id + "' (known: " + all + ")"};
+  }
+  if (out.empty()) throw InputError{"--measures lists no measure"};
+  return out;
+}
+
+ParamSet parseSets(const CliArgs& args) {
+  ParamSet set;
+  const auto specs = MeasureRegistry::instance().allParams();
+  for (const auto& s : args.sets()) {
+    if (auto e = set.assign(s)) throw InputError{"--set: " + *e};
+  }
+  for (const auto& [key, value] : set.values()) {
+    const auto it = std::find_if(specs.begin(), specs.end(), [&](const ParamSpec& p) { return p.key == key; });
+    if (it == specs.end()) throw InputError{"--set: unknown parameter '" + key + "'"};
+    if (auto e = checkParam(*it, value)) throw InputError{"--set: " + *e};
+  }
+  return set;
+}
+
+std::string formatNumber(double v) {
+  if (std::isnan(v)) return "nan";
+  if (std::isinf(v)) return v > 0 ? "inf" : "-inf";
+  char buf[64];
+  for (int prec = 6; prec <= 17; ++prec) {
+    std::snprintf(buf, sizeof buf, "%.*g", prec, v);
+    if (std::strtod(buf, nullptr) == v) break;
+  }
+  return buf;
+}
+
+}  // namespace barrow::cli

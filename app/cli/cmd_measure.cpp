@@ -1,0 +1,44 @@
+// barrow-cli measure --a A.csv --b B.csv [--measures ids] [--set k=v ...] [--json]
+#include <cmath>
+#include <cstdio>
+#include <iostream>
+#include <nlohmann/json.hpp>
+
+#include "cli/cli_common.h"
+#include "cli/commands.h"
+#include "measures/evaluate.h"
+
+namespace barrow::cli {
+
+int runMeasure(const std::vector<std::string>& argv) {
+  const CliArgs args("measure", argv, {"a", "b", "measures"}, {"json"});
+  const Cloud a = loadCloud(args.required("a"));
+  const Cloud b = loadCloud(args.required("b"));
+  EvalRequest req;
+  req.params = parseSets(args);
+  const auto measures = selectMeasures(args);
+
+  nlohmann::json out = {{"measures", nlohmann::json::array()}};
+  for (const Measure* m : measures) {
+    const Result r = evaluateMeasure(*m, a, b, req);
+    nlohmann::json row = {{"id", m->id()},
+                          {"name", m->displayName()},
+                          {"value", std::isfinite(r.value) ? nlohmann::json(r.value) : nlohmann::json()},
+                          {"status", statusName(r.status)},
+                          {"seconds", r.seconds},
+                          {"iterations", r.iterations},
+                          {"details", r.details}};
+    if (!r.message.empty()) row["message"] = r.message;
+    out["measures"].push_back(row);
+    if (!args.flag("json")) {
+      std::printf("%-10s %-22s %-14s %8.3f ms  %s\n", m->id().c_str(), formatNumber(r.value).c_str(),
+                  statusName(r.status), r.seconds * 1e3,
+                  (r.details.empty() ? std::string() : r.details.dump()).c_str());
+      if (!r.message.empty()) std::printf("%-10s   note: %s\n", "", r.message.c_str());
+    }
+  }
+  if (args.flag("json")) std::cout << out.dump() << "\n";
+  return kExitOk;
+}
+
+}  // namespace barrow::cli

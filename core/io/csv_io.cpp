@@ -1,0 +1,196 @@
+#include "io/csv_io.h"
+
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+#include <cstdio>
+#include <vector>
+
+#include "io/atomic_write.h"
+#include "measures/params.h"
+
+namespace barrow {
+
+namespace {
+
+std::string trim(const std::string& s) {
+  const auto b = s.find_first_not_of(" \t\r");
+  if (b == std::string::npos) return "";
+  const auto e = s.find_last_not_of(" \t\r");
+  return s.substr(b, e - b + 1);
+}
+
+std::string lower(std::string s) {
+  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char ch) { return std::tolower(ch); });
+  return s;
+}
+
+char detectDelimiter(const std::string& line) {
+  for (char d : {',', ';', '\t'})
+    if (line.find(d) != std::string::npos) return d;
+  return ' ';
+}
+
+std::vector<std::string> splitFields(const std::string& line, char delim) {
+  std::vector<std::string> out;
+  if (delim == ' ') {
+    std::size_t i = 0;
+    while (i < line.size()) {
+      while (i < line.size() && (line[i] == ' ' || line[i] == '\t')) ++i;
+      if (i >= line.size()) break;
+      std::size_t j = i;
+      while (j < line.size() && line[j] != ' ' && line[j] != '\t') ++j;
+      out.push_back(line.substr(i, j - i));
+      i = j;
+    }
+    return out;
+  }
+  std::size_t start = 0;
+  while (true) {
+    const auto k = line.find(delim, start);
+    out.push_back(trim(line.substr(start, k == std::string::npos ? std::string::npos : k - start)));
+    if (k == std::string::npos) break;
+    start = k + 1;
+  }
+  return out;
+}
+
+const char* kColumnNames[3] = {"x", "y", "w"};
+
+}  // namespace
+
+std::string fileStem(const std::string& path) {
+  auto slash = path.find_last_of("/\\");
+  std::string base = slash == std::string::npos ? path : path.substr(slash + 1);
+  auto dot = base.find_last_of('.');
+  return dot == std::string::npos || dot == 0 ? base : base.substr(0, dot);
+}
+
+Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) {
+  auto fail = [&](int line, std::string why) {
+    return Loaded<Cloud>::fail(LoadError{file, line, "", std::move(why)});
+  };
+  std::string text = textIn;
+  if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.erase(0, 3);  // UTF-8 byte-order mark
+
+  char delim = 0;
+  int columns = 0;           // 2 or 3 once known
+  int columnsLine = 0;       // line that fixed the column count
+  int order[3] = {0, 1, 2};  // field index of x, y, w
+  bool headerAllowed = true;
+  std::vector<double> xs, ys, ws;
+
+  std::size_t pos = 0;
+  int lineNo = 0;
+  while (pos <= text.size()) {
+    auto nl = text.find('\n', pos);
+    if (nl == std::string::npos) nl = text.size();
+    std::string raw = text.substr(pos, nl - pos);
+    pos = nl + 1;
+    ++lineNo;
+    if (const auto hash = raw.find('#'); hash != std::string::npos) raw.erase(hash);
+    const std::string line = trim(raw);
+    if (line.empty()) {
+      if (nl == text.size()) break;
+      continue;
+    }
+    if (!delim) delim = detectDelimiter(line);
+    const auto fields = splitFields(line, delim);
+
+    // A header is a first row in which some field is not a number.
+    if (headerAllowed) {
+      headerAllowed = false;
+      const bool anyText = std::any_of(fields.begin(), fields.end(),
+                                       [](const std::string& f) { return !parseNumber(f); });
+      if (anyText) {
+        if (fields.size() != 2 && fields.size() != 3)
+          return fail(lineNo, "header has " + std::to_string(fields.size()) +
+                                  " columns; expected x,y or x,y,w");
+        bool seen[3] = {false, false, false};
+        for (std::size_t k = 0; k < fields.size(); ++k) {
+          const std::string name = lower(fields[k]);
+          int role = -1;
+          if (name == "x") role = 0;
+          else if (name == "y") role = 1;
+          else if (name == "w" || name == "weight" || name == "weights" || name == "mass") role = 2;
+          if (role < 0)
+            return fail(lineNo, "header column '" + fields[k] +
+                                    "' is not recognised (expected x, y and optionally w)");
+          if (seen[role]) return fail(lineNo, "header names column '" + fields[k] + "' twice");
+          seen[role] = true;
+          order[role] = int(k);
+        }
+        if (!seen[0] || !seen[1]) return fail(lineNo, "header must name both x and y");
+        columns = int(fields.size());
+        columnsLine = lineNo;
+        continue;
+      }
+    }
+
+    if (columns == 0) {
+      if (fields.size() != 2 && fields.size() != 3)
+        return fail(lineNo, "found " + std::to_string(fields.size()) +
+                                " columns; expected 2 (x,y) or 3 (x,y,w)");
+      columns = int(fields.size());
+      columnsLine = lineNo;
+    } else if (int(fields.size()) != columns) {
+      return fail(lineNo, "found " + std::to_string(fields.size()) + " columns; expected " +
+                              std::to_string(columns) + " as on line " + std::to_string(columnsLine));
+    }
+
+    double v[3] = {0, 0, 1};
+    for (int role = 0; role < columns; ++role) {
+      const std::string& f = fields[std::size_t(order[role])];
+      const auto num = parseNumber(f);
+      const std::string col = std::string("column ") + std::to_string(order[role] + 1) + " (" +
+                              kColumnNames[role] + ")";
+      if (!num) return fail(lineNo, col + ": '" + f + "' is not a number");
+      if (std::isnan(*num)) return fail(lineNo, col + ": value is NaN");
+      if (std::isinf(*num)) return fail(lineNo, col + ": value is infinite");
+      if (role == 2 && *num < 0) return fail(lineNo, col + ": weight " + f + " is negative");
+      v[role] = *num;
+    }
+    xs.push_back(v[0]);
+    ys.push_back(v[1]);
+    ws.push_back(v[2]);
+    if (nl == text.size()) break;
+  }
+
+  if (xs.empty())
+    return fail(0, "no data rows (the file is empty or holds only comments and a header)");
+  Cloud c;
+  c.name = fileStem(file);
+  c.points.resize(Eigen::Index(xs.size()), 2);
+  c.weights.resize(Eigen::Index(xs.size()));
+  for (std::size_t i = 0; i < xs.size(); ++i) {
+    c.points(Eigen::Index(i), 0) = xs[i];
+    c.points(Eigen::Index(i), 1) = ys[i];
+    c.weights(Eigen::Index(i)) = columns == 3 ? ws[i] : 1.0 / double(xs.size());
+  }
+  if (!(c.weights.sum() > 0)) return fail(0, "all weights are zero, so the cloud has no mass");
+  return Loaded<Cloud>::success(std::move(c));
+}
+
+Loaded<Cloud> readCloudCsv(const std::string& path) {
+  std::string why;
+  const auto text = readWholeFile(path, &why);
+  if (!text) return Loaded<Cloud>::fail(LoadError{path, 0, "", "cannot open: " + why});
+  return parseCloudCsv(*text, path);
+}
+
+std::string formatCloudCsv(const Cloud& c) {
+  std::string out = "x,y,w\n";
+  char buf[96];
+  for (Eigen::Index i = 0; i < c.size(); ++i) {
+    std::snprintf(buf, sizeof buf, "%.17g,%.17g,%.17g\n", c.points(i, 0), c.points(i, 1),
+                  c.weights(i));
+    out += buf;
+  }
+  return out;
+}
+
+std::optional<std::string> writeCloudCsv(const std::string& path, const Cloud& c) {
+  return atomicWriteFile(path, formatCloudCsv(c));
+}
+
+}  // namespace barrow

@@ -1,0 +1,51 @@
+// What one evaluation of a measure returns.
+#pragma once
+
+#include <Eigen/Core>
+#include <cmath>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "measures/status.h"
+
+namespace barrow {
+
+/// One nonzero of a transport plan: mass moved from A's point i to B's point j
+/// (indices into the clouds as given; masses under the normalised weights, summing to 1).
+struct PlanEntry {
+  int i = 0;
+  int j = 0;
+  double mass = 0.0;
+};
+
+struct Result {
+  Status status = Status::InvalidInput;
+  double value = NAN;                    // as defined in DESIGN.md; +inf when Infinite
+  std::string message = "evaluate was not called";
+  std::vector<PlanEntry> plan;           // optional (transport measures)
+  Eigen::VectorXd u, v;                  // optional dual potentials on A and on B
+  int iterations = 0;
+  double seconds = 0.0;                  // wall time of evaluate()
+  /// Settings actually used and diagnostics, shown by the CLI (JSON) and the GUI:
+  /// e.g. {"estimator":"hist","bin":0.25}, {"epsilon":0.01,"marginal_error":3e-10}.
+  nlohmann::json details = nlohmann::json::object();
+
+  bool usable() const {
+    return status == Status::Ok || status == Status::Infinite || status == Status::NotConverged;
+  }
+  static Result invalid(std::string why) {
+    Result r;
+    r.message = std::move(why);
+    return r;
+  }
+  static Result ok(double value) {
+    Result r;
+    r.status = std::isinf(value) ? Status::Infinite : Status::Ok;
+    r.value = value;
+    r.message.clear();
+    return r;
+  }
+};
+
+}  // namespace barrow

@@ -1,0 +1,19 @@
+// Outcome of one evaluation, shared by every measure, the CLI and the GUI.
+#pragma once
+
+#include <string>
+
+namespace barrow {
+
+enum class Status {
+  Ok,            // value is a finite number
+  Infinite,      // value is +inf and that is the right answer (e.g. KL with disjoint support)
+  NotConverged,  // iteration budget ran out; value is the last iterate, see the message
+  InvalidInput,  // clouds or parameters rejected; the message says why
+  Cancelled,     // the caller asked to stop
+};
+
+/// The contract's spelling: "ok", "infinite", "not-converged", "invalid-input", "cancelled".
+const char* statusName(Status s);
+
+}  // namespace barrow

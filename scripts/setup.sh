@@ -1,0 +1,27 @@
+#!/usr/bin/env bash
+# Installs Barrow's build and test dependencies from Debian's packages (idempotent), then
+# configures and builds into build/. Run as root (or with sudo available).
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+PACKAGES=(cmake ninja-build ccache g++ pkg-config
+          qt6-base-dev qt6-svg-dev libqcustomplot-dev libeigen3-dev nlohmann-json3-dev
+          libgtest-dev libgmock-dev googletest libbenchmark-dev liblemon-dev
+          python3 python3-numpy python3-scipy python3-sklearn
+          xvfb xauth fonts-dejavu-core)
+
+missing=()
+for p in "${PACKAGES[@]}"; do
+  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+done
+if [ ${#missing[@]} -gt 0 ]; then
+  echo "setup: installing ${missing[*]}"
+  SUDO=""
+  [ "$(id -u)" -ne 0 ] && SUDO="sudo"
+  $SUDO apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -qq --no-install-recommends "${missing[@]}"
+fi
+
+BUILD_DIR=${BARROW_BUILD_DIR:-build}
+cmake -S . -B "$BUILD_DIR" -G Ninja -DCMAKE_BUILD_TYPE=Release "$@" >/dev/null
+cmake --build "$BUILD_DIR" -j "$(nproc)"

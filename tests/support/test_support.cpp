@@ -1,0 +1,81 @@
+#include "support/test_support.h"
+
+#include <gtest/gtest.h>
+#include <sys/wait.h>
+
+#include <cstdio>
+#include <fstream>
+#include <random>
+#include <sstream>
+
+namespace barrow::test {
+
+std::string samplesDir() { return BARROW_SAMPLES_DIR; }
+std::string dataDir() { return BARROW_TEST_DATA_DIR; }
+
+std::string tempPath(const std::string& name) {
+  static std::mt19937_64 rng(std::random_device{}());
+  return std::string(BARROW_TEST_TMP_DIR) + "/" + std::to_string(rng() % 100000000) + "-" + name;
+}
+
+void writeText(const std::string& path, const std::string& text) {
+  std::ofstream out(path, std::ios::binary);
+  out << text;
+}
+
+std::string readText(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+int runCommand(const std::string& cmd, std::string* out, std::string* err) {
+  const std::string errFile = tempPath("stderr.txt");
+  FILE* p = popen((cmd + " 2>" + errFile).c_str(), "r");
+  if (!p) return -1;
+  std::string text;
+  char buf[4096];
+  std::size_t k;
+  while ((k = fread(buf, 1, sizeof buf, p)) > 0) text.append(buf, k);
+  const int status = pclose(p);
+  if (out) *out = text;
+  if (err) *err = readText(errFile);
+  std::remove(errFile.c_str());
+  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+}
+
+std::string runPython(const std::string& script) {
+  const std::string path = tempPath("ref.py");
+  writeText(path, script);
+  std::string out, err;
+  const int rc = runCommand(std::string(BARROW_PYTHON3) + " " + path, &out, &err);
+  std::remove(path.c_str());
+  EXPECT_EQ(rc, 0) << "python reference failed:\n" << err;
+  return rc == 0 ? out : std::string();
+}
+
+bool pythonHas(const std::string& modules) {
+  return runCommand(std::string(BARROW_PYTHON3) + " -c 'import " + modules + "'", nullptr, nullptr) == 0;
+}
+
+std::string pyPoints(const Cloud& c) {
+  std::ostringstream s;
+  s.precision(17);
+  s << "np.array([";
+  for (Eigen::Index i = 0; i < c.size(); ++i) s << "[" << c.points(i, 0) << "," << c.points(i, 1) << "],";
+  s << "]).reshape(-1, 2)";
+  return s.str();
+}
+
+std::string pyWeights(const Cloud& c) {
+  std::ostringstream s;
+  s.precision(17);
+  const Eigen::VectorXd w = c.normalizedWeights();
+  s << "np.array([";
+  for (Eigen::Index i = 0; i < w.size(); ++i) s << w(i) << ",";
+  s << "])";
+  return s.str();
+}
+
+}  // namespace barrow::test
