@@ -1,0 +1,28 @@
+// Continuity findings for one measure along a sweep: jumps, flat stretches, a Lipschitz
+// estimate, monotone growth away from the best θ, and one plain sentence.
+#pragma once
+
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "sweep/sweep_result.h"
+
+namespace barrow {
+
+struct Jump {
+  double theta = 0.0;  // location (midpoint of the bracketing interval after refinement)
+  double size = 0.0;   // D(right) - D(left); +inf when D jumps to infinity
+};
+
+struct Finding {
+  std::string id;
+  bool continuous = true;
+  std::vector<Jump> jumps;
+  std::vector<std::pair<double, double>> flat;  // [θ_start, θ_end] stretches with no gradient
+  double lipschitz = 0.0;                        // max |ΔD/Δθ| between neighbours off the jumps
+  bool monotone = true;  // D grows (weakly) with distance from its best θ on both sides
+  std::string summary;   // plain words, e.g. "js is constant at 0.693 for θ > 0.13: no gradient there"
+};
+
+}  // namespace barrow

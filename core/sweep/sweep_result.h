@@ -1,0 +1,36 @@
+// What a sweep produces: per measure, D(A_θ, B) and dD/dθ on a θ grid.
+// Shared contract between the sweep engine, the findings, the CLI and the GUI.
+#pragma once
+
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "measures/params.h"
+#include "measures/status.h"
+#include "sweep/sweep_settings.h"
+
+namespace barrow {
+
+struct SweepSeries {
+  std::string id;                     // measure id
+  std::vector<double> value;          // one per θ; +inf allowed; NaN when failed
+  std::vector<Status> status;         // one per θ
+  std::vector<double> slope;          // dD/dθ per θ; NaN where undefined
+  std::vector<double> seconds;        // compute time per θ
+  std::vector<bool> oneSided;         // true where the exact plan is not unique (slope one-sided)
+  std::string gradientMethod;         // "analytic" or "finite-difference"
+  ParamSet frozen;                    // the settings used at every θ (frozen at the reference)
+  nlohmann::json details = nlohmann::json::object();  // estimator settings etc. at the reference
+};
+
+struct SweepResult {
+  SweepSettings settings;
+  std::vector<double> theta;          // increasing; the grid plus any refinement points
+  std::vector<SweepSeries> series;    // in the order of the requested measures
+  bool cancelled = false;
+  double seconds = 0.0;
+  std::string message;                // empty when all went well
+};
+
+}  // namespace barrow
