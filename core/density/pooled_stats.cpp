@@ -1,0 +1,57 @@
+#include "density/pooled_stats.h"
+
+#include <algorithm>
+#include <cmath>
+#include <utility>
+#include <vector>
+
+namespace barrow {
+
+namespace {
+
+// Inverse of the weighted empirical CDF: the smallest x whose cumulative weight reaches u.
+double weightedQuantile(const std::vector<std::pair<double, double>>& sorted, double u) {
+  double cum = 0.0;
+  for (const auto& [x, w] : sorted) {
+    cum += w;
+    if (cum >= u) return x;
+  }
+  return sorted.back().first;
+}
+
+}  // namespace
+
+PooledStats pooledStats(const Cloud& a, const Cloud& b) {
+  std::vector<std::pair<Eigen::Vector2d, double>> pts;
+  pts.reserve(std::size_t(a.size() + b.size()));
+  for (const Cloud* c : {&a, &b}) {
+    const Eigen::VectorXd w = c->normalizedWeights();
+    for (Eigen::Index i = 0; i < c->size(); ++i)
+      if (w(i) > 0) pts.push_back({c->point(i), 0.5 * w(i)});
+  }
+  PooledStats s;
+  if (pts.empty()) return s;
+  s.min = s.max = pts.front().first;
+  Eigen::Vector2d mean = Eigen::Vector2d::Zero();
+  double sumW2 = 0.0;
+  for (const auto& [p, w] : pts) {
+    s.min = s.min.cwiseMin(p);
+    s.max = s.max.cwiseMax(p);
+    mean += w * p;
+    sumW2 += w * w;
+  }
+  Eigen::Vector2d var = Eigen::Vector2d::Zero();
+  for (const auto& [p, w] : pts) var += w * (p - mean).cwiseAbs2();
+  s.sd = var.cwiseSqrt();
+  s.effectiveSize = 1.0 / sumW2;
+  for (int axis = 0; axis < 2; ++axis) {
+    std::vector<std::pair<double, double>> col;
+    col.reserve(pts.size());
+    for (const auto& [p, w] : pts) col.push_back({p(axis), w});
+    std::sort(col.begin(), col.end());
+    s.iqr(axis) = weightedQuantile(col, 0.75) - weightedQuantile(col, 0.25);
+  }
+  return s;
+}
+
+}  // namespace barrow
