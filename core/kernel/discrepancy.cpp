@@ -1,0 +1,42 @@
+#include "kernel/discrepancy.h"
+
+namespace barrow {
+
+DiscrepancySums discrepancySums(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,
+                                const WorkSlice& slice) {
+  const PackedPoints pa(a.points, a.weights), pb(b.points, b.weights);
+  // Split the progress bar by the number of pairs each sum visits.
+  const double n = double(a.size()), m = double(b.size());
+  const double wAA = 0.5 * n * n, wBB = 0.5 * m * m, wAB = n * m, all = wAA + wBB + wAB;
+  const double c1 = wAA / all, c2 = (wAA + wBB) / all;
+
+  DiscrepancySums s;
+  const PairSum aa = offDiagonalPairSum(pa, k, slice.sub(0.0, c1));
+  const PairSum bb = aa.complete ? offDiagonalPairSum(pb, k, slice.sub(c1, c2)) : PairSum{0.0, false};
+  const PairSum ab = bb.complete ? crossPairSum(pa, pb, k, slice.sub(c2, 1.0)) : PairSum{0.0, false};
+  s.complete = ab.complete;
+  s.aaOffDiagonal = 2.0 * aa.value;
+  s.bbOffDiagonal = 2.0 * bb.value;
+  s.ab = ab.value;
+  s.sumSquaresA = a.weights.squaredNorm();
+  s.sumSquaresB = b.weights.squaredNorm();
+  const double kSame = k.kind == PairKernel::Gaussian ? 1.0 : 0.0;  // k(x, x)
+  s.aaDiagonal = kSame * s.sumSquaresA;
+  s.bbDiagonal = kSame * s.sumSquaresB;
+  return s;
+}
+
+Eigen::MatrixX2d discrepancyGradient(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,
+                                     double selfScale, const WorkSlice& slice, bool* complete) {
+  const PackedPoints pa(a.points, a.weights), pb(b.points, b.weights);
+  const double n = double(a.size()), m = double(b.size());
+  const RowSums self = rowPairSums(pa, pa, k, slice.sub(0.0, n / (n + m)));
+  const RowSums cross = self.complete ? rowPairSums(pa, pb, k, slice.sub(n / (n + m), 1.0)) : RowSums{};
+  *complete = self.complete && cross.complete;
+  if (!*complete) return Eigen::MatrixX2d::Zero(a.size(), 2);
+  Eigen::MatrixX2d g = selfScale * self.grad - cross.grad;
+  g.array().colwise() *= 2.0 * a.weights.array();
+  return g;
+}
+
+}  // namespace barrow

@@ -1,0 +1,39 @@
+// The three pair sums behind kernel discrepancies between weighted empirical measures
+// a = sum_i a_i delta_{x_i} and b = sum_j b_j delta_{y_j}:
+//   K_aa = sum_{i,k} a_i a_k k(x_i, x_k),  K_bb likewise,  K_ab = sum_{i,j} a_i b_j k(x_i, y_j),
+// so that MMD^2 = K_aa + K_bb - 2 K_ab (Gretton et al. 2012, JMLR 13, Lemma 6 (mem)) and the
+// energy distance is the same with k(x, y) = -||x - y|| (Sejdinovic et al. 2013, Ann. Stat. 41).
+// Also their gradients with respect to the points of a.
+#pragma once
+
+#include <Eigen/Core>
+
+#include "kernel/pair_sum.h"
+#include "kernel/support_points.h"
+
+namespace barrow {
+
+struct DiscrepancySums {
+  double aaOffDiagonal = 0.0;  // sum_{i != k} a_i a_k k(x_i, x_k)   (both orders)
+  double bbOffDiagonal = 0.0;
+  double ab = 0.0;             // sum_{i,j} a_i b_j k(x_i, y_j)
+  double aaDiagonal = 0.0;     // sum_i a_i^2 k(x_i, x_i)
+  double bbDiagonal = 0.0;
+  double sumSquaresA = 0.0;    // sum_i a_i^2 (for the U-statistic's renormalisation)
+  double sumSquaresB = 0.0;
+  bool complete = true;
+};
+
+/// Pre: both supports non-empty with weights summing to 1.
+DiscrepancySums discrepancySums(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,
+                                const WorkSlice& slice);
+
+/// For each support point x_i of a:
+///   2 a_i [ selfScale * sum_k a_k grad k(x_i, x_k) - sum_j b_j grad k(x_i, y_j) ],
+/// the gradient of selfScale * K_aa - 2 K_ab (selfScale = 1 for the V-statistic; the i = k
+/// terms have zero gradient for both kernels here). Rows follow a's support order.
+/// `complete` is set false when stopped through RunControl.
+Eigen::MatrixX2d discrepancyGradient(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,
+                                     double selfScale, const WorkSlice& slice, bool* complete);
+
+}  // namespace barrow

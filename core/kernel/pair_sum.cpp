@@ -1,0 +1,224 @@
+#include "kernel/pair_sum.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include "kernel/simd_exp.h"
+
+namespace barrow {
+
+PackedPoints::PackedPoints(const Eigen::MatrixX2d& p, const Eigen::VectorXd& w) : n_(p.rows()) {
+  const Eigen::Index padded = (n_ + 3) / 4 * 4;
+  x_.resize(std::size_t(padded));
+  y_.resize(std::size_t(padded));
+  w_.assign(std::size_t(padded), 0.0);
+  for (Eigen::Index i = 0; i < padded; ++i) {
+    const Eigen::Index src = std::min(i, n_ - 1);
+    x_[std::size_t(i)] = p(src, 0);
+    y_[std::size_t(i)] = p(src, 1);
+    if (i < n_) w_[std::size_t(i)] = w(i);
+  }
+}
+
+namespace {
+
+using Index = Eigen::Index;
+constexpr Index kRowBlock = 32;   // rows per unit of work (and per cancellation check)
+constexpr Index kColTile = 2048;  // columns per tile: 48 KiB of x, y, w stays in L1/L2
+
+struct RowAcc {
+  double s = 0.0, gx = 0.0, gy = 0.0;
+};
+
+// Skip the thread start-up for small problems.
+int threadsFor(double pairs, int threads) {
+  if (threads > 0) return threads;
+  return pairs < double(1 << 18) ? 1 : defaultThreadCount();
+}
+
+// Adds sum_j w_j k(p, q_j) (and the gradient sums) over columns [j0, j1) to acc; columns
+// j < from are left out. j0 and j1 are multiples of 4 (the padding guarantees j1).
+template <PairKernel K, bool Grad>
+void accumulateRow(double px, double py, const PackedPoints& q, Index j0, Index j1, Index from,
+                   double gamma, RowAcc& acc) {
+  const double* qx = q.x();
+  const double* qy = q.y();
+  const double* qw = q.w();
+#ifdef BARROW_HAVE_AVX2
+  const __m256d vx = _mm256_set1_pd(px), vy = _mm256_set1_pd(py);
+  const __m256d negGamma = _mm256_set1_pd(-gamma);
+  const __m256d zero = _mm256_setzero_pd();
+  __m256d s = zero, gx = zero, gy = zero;
+  auto step = [&](Index j, __m256d w) {
+    const __m256d dx = _mm256_sub_pd(vx, _mm256_loadu_pd(qx + j));
+    const __m256d dy = _mm256_sub_pd(vy, _mm256_loadu_pd(qy + j));
+    const __m256d d2 = _mm256_fmadd_pd(dx, dx, _mm256_mul_pd(dy, dy));
+    if constexpr (K == PairKernel::Gaussian) {
+      const __m256d wk = _mm256_mul_pd(w, simd::expNonPositive4(_mm256_mul_pd(negGamma, d2)));
+      s = _mm256_add_pd(s, wk);
+      if constexpr (Grad) {
+        gx = _mm256_fmadd_pd(wk, dx, gx);
+        gy = _mm256_fmadd_pd(wk, dy, gy);
+      }
+    } else {
+      const __m256d d = _mm256_sqrt_pd(d2);
+      s = _mm256_fmadd_pd(w, d, s);
+      if constexpr (Grad) {
+        const __m256d pos = _mm256_cmp_pd(d, zero, _CMP_GT_OQ);
+        const __m256d wInv = _mm256_and_pd(_mm256_div_pd(w, _mm256_max_pd(d, _mm256_set1_pd(1e-300))), pos);
+        gx = _mm256_fmadd_pd(wInv, dx, gx);
+        gy = _mm256_fmadd_pd(wInv, dy, gy);
+      }
+    }
+  };
+  Index j = j0;
+  if (j < from) {  // first vector straddles the diagonal: mask the lanes j < from
+    const __m256d lane = _mm256_set_pd(double(j + 3), double(j + 2), double(j + 1), double(j));
+    const __m256d keep = _mm256_cmp_pd(lane, _mm256_set1_pd(double(from)), _CMP_GE_OQ);
+    step(j, _mm256_and_pd(_mm256_loadu_pd(qw + j), keep));
+    j += 4;
+  }
+  for (; j < j1; j += 4) step(j, _mm256_loadu_pd(qw + j));
+  auto hsum = [](__m256d v) {
+    const __m128d lo = _mm256_castpd256_pd128(v), hi = _mm256_extractf128_pd(v, 1);
+    const __m128d pair = _mm_add_pd(lo, hi);
+    return _mm_cvtsd_f64(_mm_add_sd(pair, _mm_unpackhi_pd(pair, pair)));
+  };
+  acc.s += hsum(s);
+  if constexpr (Grad) {
+    acc.gx += hsum(gx);
+    acc.gy += hsum(gy);
+  }
+#else
+  for (Index j = std::max(j0, from); j < j1; ++j) {
+    const double dx = px - qx[j], dy = py - qy[j];
+    const double d2 = dx * dx + dy * dy;
+    if constexpr (K == PairKernel::Gaussian) {
+      const double wk = qw[j] * simd::expNonPositive(-gamma * d2);
+      acc.s += wk;
+      if constexpr (Grad) {
+        acc.gx += wk * dx;
+        acc.gy += wk * dy;
+      }
+    } else {
+      const double d = std::sqrt(d2);
+      acc.s += qw[j] * d;
+      if constexpr (Grad) {
+        if (d > 0) {
+          acc.gx += qw[j] / d * dx;
+          acc.gy += qw[j] / d * dy;
+        }
+      }
+    }
+  }
+#endif
+}
+
+Index floor4(Index j) { return j / 4 * 4; }
+
+template <PairKernel K>
+PairSum crossSum(const PackedPoints& p, const PackedPoints& q, double gamma, const WorkSlice& slice,
+                 int threads) {
+  const Index n = p.size();
+  const int blocks = int((n + kRowBlock - 1) / kRowBlock);
+  std::vector<double> partial(std::size_t(blocks), 0.0);
+  const bool complete = runBlocks(
+      blocks,
+      [&](int b) {
+        const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
+        RowAcc acc[kRowBlock];
+        for (Index t0 = 0; t0 < q.paddedSize(); t0 += kColTile) {
+          const Index t1 = std::min(q.paddedSize(), t0 + kColTile);
+          for (Index i = r0; i < r1; ++i)
+            accumulateRow<K, false>(p.x()[i], p.y()[i], q, t0, t1, 0, gamma, acc[i - r0]);
+        }
+        double sum = 0.0;
+        for (Index i = r0; i < r1; ++i) sum += p.w()[i] * acc[i - r0].s;
+        partial[std::size_t(b)] = sum;
+      },
+      slice, threadsFor(double(n) * double(q.size()), threads));
+  PairSum out;
+  out.complete = complete;
+  for (double v : partial) out.value += v;
+  return out;
+}
+
+template <PairKernel K>
+PairSum selfSum(const PackedPoints& p, double gamma, const WorkSlice& slice, int threads) {
+  const Index n = p.size();
+  const int blocks = int((n + kRowBlock - 1) / kRowBlock);
+  std::vector<double> partial(std::size_t(blocks), 0.0);
+  const bool complete = runBlocks(
+      blocks,
+      [&](int b) {
+        const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
+        RowAcc acc[kRowBlock];
+        for (Index t0 = floor4(r0 + 1); t0 < p.paddedSize(); t0 += kColTile) {
+          const Index t1 = std::min(p.paddedSize(), t0 + kColTile);
+          for (Index i = r0; i < r1; ++i) {
+            const Index j0 = std::max(t0, floor4(i + 1));
+            if (j0 < t1) accumulateRow<K, false>(p.x()[i], p.y()[i], p, j0, t1, i + 1, gamma, acc[i - r0]);
+          }
+        }
+        double sum = 0.0;
+        for (Index i = r0; i < r1; ++i) sum += p.w()[i] * acc[i - r0].s;
+        partial[std::size_t(b)] = sum;
+      },
+      slice, threadsFor(0.5 * double(n) * double(n), threads));
+  PairSum out;
+  out.complete = complete;
+  for (double v : partial) out.value += v;
+  return out;
+}
+
+template <PairKernel K>
+RowSums rowSums(const PackedPoints& p, const PackedPoints& q, double gamma, const WorkSlice& slice,
+                int threads) {
+  const Index n = p.size();
+  RowSums out;
+  out.value.setZero(n);
+  out.grad.setZero(n, 2);
+  const int blocks = int((n + kRowBlock - 1) / kRowBlock);
+  out.complete = runBlocks(
+      blocks,
+      [&](int b) {
+        const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
+        RowAcc acc[kRowBlock];
+        for (Index t0 = 0; t0 < q.paddedSize(); t0 += kColTile) {
+          const Index t1 = std::min(q.paddedSize(), t0 + kColTile);
+          for (Index i = r0; i < r1; ++i)
+            accumulateRow<K, true>(p.x()[i], p.y()[i], q, t0, t1, 0, gamma, acc[i - r0]);
+        }
+        // d/dx exp(-gamma |x-y|^2) = -2 gamma (x - y) k; d/dx |x-y| = (x - y)/|x-y|.
+        const double scale = K == PairKernel::Gaussian ? -2.0 * gamma : 1.0;
+        for (Index i = r0; i < r1; ++i) {
+          out.value(i) = acc[i - r0].s;
+          out.grad(i, 0) = scale * acc[i - r0].gx;
+          out.grad(i, 1) = scale * acc[i - r0].gy;
+        }
+      },
+      slice, threadsFor(double(n) * double(q.size()), threads));
+  return out;
+}
+
+}  // namespace
+
+PairSum crossPairSum(const PackedPoints& p, const PackedPoints& q, const PairKernelSpec& k,
+                     const WorkSlice& slice, int threads) {
+  return k.kind == PairKernel::Gaussian ? crossSum<PairKernel::Gaussian>(p, q, k.gamma, slice, threads)
+                                        : crossSum<PairKernel::Distance>(p, q, 0.0, slice, threads);
+}
+
+PairSum offDiagonalPairSum(const PackedPoints& p, const PairKernelSpec& k, const WorkSlice& slice,
+                           int threads) {
+  return k.kind == PairKernel::Gaussian ? selfSum<PairKernel::Gaussian>(p, k.gamma, slice, threads)
+                                        : selfSum<PairKernel::Distance>(p, 0.0, slice, threads);
+}
+
+RowSums rowPairSums(const PackedPoints& p, const PackedPoints& q, const PairKernelSpec& k,
+                    const WorkSlice& slice, int threads) {
+  return k.kind == PairKernel::Gaussian ? rowSums<PairKernel::Gaussian>(p, q, k.gamma, slice, threads)
+                                        : rowSums<PairKernel::Distance>(p, q, 0.0, slice, threads);
+}
+
+}  // namespace barrow

@@ -1,0 +1,35 @@
+#include "measures/energy_measure.h"
+
+#include <cmath>
+
+#include "kernel/discrepancy.h"
+#include "kernel/measure_outcome.h"
+
+namespace barrow {
+
+Result EnergyMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
+  const SupportPoints sa = supportOf(a), sb = supportOf(b);
+  const DiscrepancySums s = discrepancySums(sa, sb, {PairKernel::Distance, 0.0}, WorkSlice{ctx.control});
+  if (!s.complete) return cancelledResult(id());
+  const double e = 2.0 * s.ab - s.aaOffDiagonal - s.bbOffDiagonal;  // the diagonal terms are 0
+  Result r = Result::ok(std::sqrt(std::max(e, 0.0)));
+  r.details["energy"] = e;
+  r.details["statistic"] = "V (all pairs, diagonal included)";
+  r.details["points_used"] = {{"a", sa.size()}, {"b", sb.size()}};
+  r.details["gradient_at_coincident_points"] = "0";
+  return r;
+}
+
+std::optional<Eigen::MatrixX2d> EnergyMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,
+                                                         const Result& r) const {
+  if (r.status != Status::Ok || !(r.value > 0)) return std::nullopt;
+  const SupportPoints sa = supportOf(a), sb = supportOf(b);
+  bool complete = true;
+  // E = -(K_aa + K_bb - 2 K_ab) for k = |x - y|, hence the minus sign.
+  const Eigen::MatrixX2d gk =
+      discrepancyGradient(sa, sb, {PairKernel::Distance, 0.0}, 1.0, WorkSlice{ctx.control}, &complete);
+  if (!complete) return std::nullopt;
+  return toCloudRows(sa, a.size(), -gk / (2.0 * r.value));
+}
+
+}  // namespace barrow
