@@ -25,7 +25,12 @@ Eigen::Matrix2d spectralMap(const Eigen::Matrix2d& m, F&& f) {
 }  // namespace
 
 Eigen::Matrix2d psdSqrt(const Eigen::Matrix2d& m) {
-  return spectralMap(m, [](double l) { return std::sqrt(std::max(l, 0.0)); });
+  // An eigenvalue that should be 0 comes out as +-eps * |m| and its root as sqrt(eps) * |m|^(1/2),
+  // which would leave ~1e-8 errors in FD for collinear clouds: treat rounding-level
+  // eigenvalues (<= 1e-14 of the largest) as the zeros they are.
+  const double top = Eigen::SelfAdjointEigenSolver<Eigen::Matrix2d>(m, Eigen::EigenvaluesOnly).eigenvalues()(1);
+  const double floor = 1e-14 * std::max(top, 0.0);
+  return spectralMap(m, [floor](double l) { return l > floor ? std::sqrt(l) : 0.0; });
 }
 
 int psdRank(const Eigen::Matrix2d& m) {

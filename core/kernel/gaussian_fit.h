@@ -3,7 +3,10 @@
 // (Dowson & Landau 1982, JMVA 12:450-455; Olkin & Pukelsheim 1982, LAA 48:257-263), valid
 // for singular (PSD) covariances too. Square roots are symmetric PSD roots by
 // eigen-decomposition with negative rounding-level eigenvalues clipped to 0, so no complex
-// parts arise (unlike sqrtm(S1 S2)).
+// parts arise (unlike sqrtm(S1 S2)). Near-singular covariances: FD is not Lipschitz in the
+// covariance there (tr sqrt), so rounding at the eps level can only be kept out by the
+// clipping in psdSqrt; a genuine eigenvalue below 1e-14 of the largest is dropped (changing
+// FD by at most ~1e-7 x the larger standard deviation).
 #pragma once
 
 #include <Eigen/Core>
@@ -23,7 +26,8 @@ struct GaussianFit {
 /// Two-pass (centred) moments of the support points. Pre: s non-empty.
 GaussianFit fitGaussian(const SupportPoints& s);
 
-/// Symmetric PSD square root (eigenvalues below 0 clipped to 0). Pre: m symmetric.
+/// Symmetric PSD square root. Eigenvalues <= 1e-14 x the largest are taken as 0 (they are
+/// rounding noise of a singular matrix; their roots would be ~1e-8 errors). Pre: m symmetric.
 Eigen::Matrix2d psdSqrt(const Eigen::Matrix2d& m);
 
 /// Numerical rank of a symmetric PSD 2x2 matrix: eigenvalues <= 1e-12 * (largest
