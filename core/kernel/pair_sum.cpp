@@ -116,57 +116,45 @@ void accumulateRow(double px, double py, const PackedPoints& q, Index j0, Index 
 
 Index floor4(Index j) { return j / 4 * 4; }
 
-template <PairKernel K>
-PairSum crossSum(const PackedPoints& p, const PackedPoints& q, double gamma, const WorkSlice& slice,
-                 int threads) {
+// The tiled loop shared by all sums: row blocks of p (the unit of threading and cancellation)
+// against column tiles of q, over all columns or, when `upper` (q is p), only j > i.
+// finish(block, r0, r1, acc) receives the block's per-row accumulators.
+template <PairKernel K, bool Grad, class Finish>
+bool tiledRows(const PackedPoints& p, const PackedPoints& q, bool upper, double gamma, const WorkSlice& slice,
+               int threads, Finish&& finish) {
   const Index n = p.size();
   const int blocks = int((n + kRowBlock - 1) / kRowBlock);
-  std::vector<double> partial(std::size_t(blocks), 0.0);
-  const bool complete = runBlocks(
+  const double pairs = upper ? 0.5 * double(n) * double(n) : double(n) * double(q.size());
+  return runBlocks(
       blocks,
       [&](int b) {
         const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
         RowAcc acc[kRowBlock];
-        for (Index t0 = 0; t0 < q.paddedSize(); t0 += kColTile) {
+        for (Index t0 = upper ? floor4(r0 + 1) : 0; t0 < q.paddedSize(); t0 += kColTile) {
           const Index t1 = std::min(q.paddedSize(), t0 + kColTile);
-          for (Index i = r0; i < r1; ++i)
-            accumulateRow<K, false>(p.x()[i], p.y()[i], q, t0, t1, 0, gamma, acc[i - r0]);
-        }
-        double sum = 0.0;
-        for (Index i = r0; i < r1; ++i) sum += p.w()[i] * acc[i - r0].s;
-        partial[std::size_t(b)] = sum;
-      },
-      slice, threadsFor(double(n) * double(q.size()), threads));
-  PairSum out;
-  out.complete = complete;
-  for (double v : partial) out.value += v;
-  return out;
-}
-
-template <PairKernel K>
-PairSum selfSum(const PackedPoints& p, double gamma, const WorkSlice& slice, int threads) {
-  const Index n = p.size();
-  const int blocks = int((n + kRowBlock - 1) / kRowBlock);
-  std::vector<double> partial(std::size_t(blocks), 0.0);
-  const bool complete = runBlocks(
-      blocks,
-      [&](int b) {
-        const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
-        RowAcc acc[kRowBlock];
-        for (Index t0 = floor4(r0 + 1); t0 < p.paddedSize(); t0 += kColTile) {
-          const Index t1 = std::min(p.paddedSize(), t0 + kColTile);
           for (Index i = r0; i < r1; ++i) {
-            const Index j0 = std::max(t0, floor4(i + 1));
-            if (j0 < t1) accumulateRow<K, false>(p.x()[i], p.y()[i], p, j0, t1, i + 1, gamma, acc[i - r0]);
+            const Index from = upper ? i + 1 : 0;
+            const Index j0 = std::max(t0, floor4(from));
+            if (j0 < t1) accumulateRow<K, Grad>(p.x()[i], p.y()[i], q, j0, t1, from, gamma, acc[i - r0]);
           }
         }
-        double sum = 0.0;
-        for (Index i = r0; i < r1; ++i) sum += p.w()[i] * acc[i - r0].s;
-        partial[std::size_t(b)] = sum;
+        finish(b, r0, r1, acc);
       },
-      slice, threadsFor(0.5 * double(n) * double(n), threads));
+      slice, threadsFor(pairs, threads));
+}
+
+// sum_i p.w_i sum_j q.w_j k(p_i, q_j) (j > i only when `upper`), blocks added in order.
+template <PairKernel K>
+PairSum weightedSum(const PackedPoints& p, const PackedPoints& q, bool upper, double gamma, const WorkSlice& slice,
+                    int threads) {
+  std::vector<double> partial(std::size_t((p.size() + kRowBlock - 1) / kRowBlock), 0.0);
   PairSum out;
-  out.complete = complete;
+  out.complete = tiledRows<K, false>(p, q, upper, gamma, slice, threads,
+                                     [&](int b, Index r0, Index r1, const RowAcc* acc) {
+                                       double sum = 0.0;
+                                       for (Index i = r0; i < r1; ++i) sum += p.w()[i] * acc[i - r0].s;
+                                       partial[std::size_t(b)] = sum;
+                                     });
   for (double v : partial) out.value += v;
   return out;
 }
@@ -174,30 +162,19 @@ PairSum selfSum(const PackedPoints& p, double gamma, const WorkSlice& slice, int
 template <PairKernel K>
 RowSums rowSums(const PackedPoints& p, const PackedPoints& q, double gamma, const WorkSlice& slice,
                 int threads) {
-  const Index n = p.size();
   RowSums out;
-  out.value.setZero(n);
-  out.grad.setZero(n, 2);
-  const int blocks = int((n + kRowBlock - 1) / kRowBlock);
-  out.complete = runBlocks(
-      blocks,
-      [&](int b) {
-        const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
-        RowAcc acc[kRowBlock];
-        for (Index t0 = 0; t0 < q.paddedSize(); t0 += kColTile) {
-          const Index t1 = std::min(q.paddedSize(), t0 + kColTile);
-          for (Index i = r0; i < r1; ++i)
-            accumulateRow<K, true>(p.x()[i], p.y()[i], q, t0, t1, 0, gamma, acc[i - r0]);
-        }
-        // d/dx exp(-gamma |x-y|^2) = -2 gamma (x - y) k; d/dx |x-y| = (x - y)/|x-y|.
-        const double scale = K == PairKernel::Gaussian ? -2.0 * gamma : 1.0;
-        for (Index i = r0; i < r1; ++i) {
-          out.value(i) = acc[i - r0].s;
-          out.grad(i, 0) = scale * acc[i - r0].gx;
-          out.grad(i, 1) = scale * acc[i - r0].gy;
-        }
-      },
-      slice, threadsFor(double(n) * double(q.size()), threads));
+  out.value.setZero(p.size());
+  out.grad.setZero(p.size(), 2);
+  // d/dx exp(-gamma |x-y|^2) = -2 gamma (x - y) k; d/dx |x-y| = (x - y)/|x-y|.
+  const double scale = K == PairKernel::Gaussian ? -2.0 * gamma : 1.0;
+  out.complete = tiledRows<K, true>(p, q, false, gamma, slice, threads,
+                                    [&](int, Index r0, Index r1, const RowAcc* acc) {
+                                      for (Index i = r0; i < r1; ++i) {
+                                        out.value(i) = acc[i - r0].s;
+                                        out.grad(i, 0) = scale * acc[i - r0].gx;
+                                        out.grad(i, 1) = scale * acc[i - r0].gy;
+                                      }
+                                    });
   return out;
 }
 
@@ -205,14 +182,14 @@ RowSums rowSums(const PackedPoints& p, const PackedPoints& q, double gamma, cons
 
 PairSum crossPairSum(const PackedPoints& p, const PackedPoints& q, const PairKernelSpec& k,
                      const WorkSlice& slice, int threads) {
-  return k.kind == PairKernel::Gaussian ? crossSum<PairKernel::Gaussian>(p, q, k.gamma, slice, threads)
-                                        : crossSum<PairKernel::Distance>(p, q, 0.0, slice, threads);
+  return k.kind == PairKernel::Gaussian ? weightedSum<PairKernel::Gaussian>(p, q, false, k.gamma, slice, threads)
+                                        : weightedSum<PairKernel::Distance>(p, q, false, 0.0, slice, threads);
 }
 
 PairSum offDiagonalPairSum(const PackedPoints& p, const PairKernelSpec& k, const WorkSlice& slice,
                            int threads) {
-  return k.kind == PairKernel::Gaussian ? selfSum<PairKernel::Gaussian>(p, k.gamma, slice, threads)
-                                        : selfSum<PairKernel::Distance>(p, 0.0, slice, threads);
+  return k.kind == PairKernel::Gaussian ? weightedSum<PairKernel::Gaussian>(p, p, true, k.gamma, slice, threads)
+                                        : weightedSum<PairKernel::Distance>(p, p, true, 0.0, slice, threads);
 }
 
 RowSums rowPairSums(const PackedPoints& p, const PackedPoints& q, const PairKernelSpec& k,

@@ -8,6 +8,8 @@
 #include <random>
 #include <sstream>
 
+#include "measures/evaluate.h"
+
 namespace barrow::test {
 
 std::string samplesDir() { return BARROW_SAMPLES_DIR; }
@@ -76,6 +78,35 @@ std::string pyWeights(const Cloud& c) {
   for (Eigen::Index i = 0; i < w.size(); ++i) s << w(i) << ",";
   s << "])";
   return s.str();
+}
+
+Eigen::MatrixX2d finiteDifferenceGradientA(const Measure& m, const Cloud& a, const Cloud& b, const ParamSet& params,
+                                           double h) {
+  EvalRequest req;
+  req.params = params;
+  Eigen::MatrixX2d g(a.size(), 2);
+  for (Eigen::Index i = 0; i < a.size(); ++i)
+    for (int c = 0; c < 2; ++c) {
+      Cloud ap = a, am = a;
+      ap.points(i, c) += h;
+      am.points(i, c) -= h;
+      g(i, c) = (evaluateMeasure(m, ap, b, req).value - evaluateMeasure(m, am, b, req).value) / (2 * h);
+    }
+  return g;
+}
+
+std::optional<Eigen::MatrixX2d> analyticGradientA(const Measure& m, const Cloud& a, const Cloud& b,
+                                                  const ParamSet& params) {
+  EvalRequest req;
+  req.params = params;
+  req.wantPlan = true;
+  const Result r = evaluateMeasure(m, a, b, req);
+  EvalContext ctx;
+  std::string error;
+  ctx.params = resolveParams(m, params, &error);
+  ctx.wantPlan = true;
+  EXPECT_TRUE(error.empty()) << error;
+  return m.gradientA(a, b, ctx, r);
 }
 
 }  // namespace barrow::test

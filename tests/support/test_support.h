@@ -2,9 +2,11 @@
 // (SciPy/NumPy/scikit-learn) as an outside reference.
 #pragma once
 
+#include <optional>
 #include <string>
 
 #include "cloud/cloud.h"
+#include "measures/measure.h"
 
 namespace barrow::test {
 
@@ -29,5 +31,13 @@ int runCommand(const std::string& cmd, std::string* out, std::string* err);
 std::string pyPoints(const Cloud& c);
 /// Normalised weights as "np.array([...])".
 std::string pyWeights(const Cloud& c);
+
+/// dD/dx_i by central differences of m's value (through evaluateMeasure with `params`),
+/// moving one coordinate of one point of A at a time by +-h (n x 2).
+Eigen::MatrixX2d finiteDifferenceGradientA(const Measure& m, const Cloud& a, const Cloud& b, const ParamSet& params,
+                                           double h);
+/// m.gradientA on (a, b) with `params` resolved, after evaluating with wantPlan = true.
+std::optional<Eigen::MatrixX2d> analyticGradientA(const Measure& m, const Cloud& a, const Cloud& b,
+                                                  const ParamSet& params);
 
 }  // namespace barrow::test
