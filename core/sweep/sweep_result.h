@@ -22,6 +22,7 @@ struct SweepSeries {
   std::string gradientMethod;         // "analytic" or "finite-difference"
   ParamSet frozen;                    // the settings used at every θ (frozen at the reference)
   nlohmann::json details = nlohmann::json::object();  // estimator settings etc. at the reference
+  std::string message;                // first failure's reason; empty when every θ succeeded
 };
 
 struct SweepResult {
@@ -31,6 +32,12 @@ struct SweepResult {
   bool cancelled = false;
   double seconds = 0.0;
   std::string message;                // empty when all went well
+  // How the sweep was run (recorded in the CSV so a run can be repeated exactly).
+  double refineTolerance = 0.0;       // θ width refinement bisected down to; 0 = no refinement
+  int refinedPoints = 0;              // θ values inserted by refinement
+  bool refineBudgetHit = false;       // refinement stopped at its point budget, not at the tolerance
+  int threads = 0;                    // worker threads used (θ is split into that many chunks)
+  bool warmStart = true;              // warm starts between neighbouring θ within a chunk
 };
 
 }  // namespace barrow

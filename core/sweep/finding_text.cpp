@@ -1,0 +1,88 @@
+#include "sweep/finding_text.h"
+
+#include <cmath>
+#include <cstdio>
+
+namespace barrow {
+
+std::string shortNumber(double v) {
+  if (std::isnan(v)) return "n/a";
+  if (std::isinf(v)) return v > 0 ? "+∞" : "−∞";
+  if (v == 0) return "0";
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3g", v);
+  return buf;
+}
+
+namespace {
+
+std::string signedNumber(double v) { return (v > 0 ? "+" : "") + shortNumber(v); }
+
+std::string jumpText(const Jump& j) {
+  if (std::isinf(j.size)) return (j.size > 0 ? "to +∞ at θ = " : "from +∞ at θ = ") + shortNumber(j.theta);
+  return "by " + signedNumber(j.size) + " at θ = " + shortNumber(j.theta);
+}
+
+std::string extentText(const FlatFacts& s, const FindingFacts& facts) {
+  const bool fromStart = s.from <= facts.thetaLow, toEnd = s.to >= facts.thetaHigh;
+  if (fromStart && toEnd) return "over the whole sweep";
+  if (toEnd) return "for θ ≥ " + shortNumber(s.from);
+  if (fromStart) return "for θ ≤ " + shortNumber(s.to);
+  return "for θ in [" + shortNumber(s.from) + ", " + shortNumber(s.to) + "]";
+}
+
+std::string flatWhat(const FlatFacts& s, const FindingFacts& facts) {
+  if (std::isinf(s.low)) return "is +∞";
+  if (s.high - s.low <= facts.constantTolerance) return "is constant at " + shortNumber(s.low);
+  if (std::isinf(s.high)) return "is flat or +∞";
+  return "is flat (between " + shortNumber(s.low) + " and " + shortNumber(s.high) + ")";
+}
+
+std::string bestText(const FindingFacts& facts) {
+  const auto [lo, hi] = facts.best;
+  if (lo == hi) return "its best θ = " + shortNumber(lo);
+  return "its minimum " + shortNumber(facts.lowest) + " (θ in [" + shortNumber(lo) + ", " + shortNumber(hi) + "])";
+}
+
+}  // namespace
+
+std::string describeFinding(const Finding& f, const FindingFacts& facts) {
+  if (facts.failed == facts.samples)
+    return f.id + " failed at every θ" + (facts.failure.empty() ? std::string() : ": " + facts.failure);
+  if (facts.constant)
+    return f.id + " is constant at " + shortNumber(facts.lowest) +
+           " over the whole sweep: it cannot tell the θ values apart and gives no gradient";
+
+  std::string s = f.id;
+  if (f.jumps.empty()) {
+    s += " is continuous";
+    if (!facts.refined) s += " on this grid";
+  } else {
+    s += " jumps ";
+    const std::size_t shown = std::min<std::size_t>(f.jumps.size(), 3);
+    for (std::size_t k = 0; k < shown; ++k)
+      s += (k == 0 ? "" : k + 1 == shown && shown == f.jumps.size() ? " and " : ", ") + jumpText(f.jumps[k]);
+    if (f.jumps.size() > shown) s += " and " + std::to_string(f.jumps.size() - shown) + " more times";
+    s += facts.refined ? " (each confirmed by bisection)" : " (judged from the grid alone, without refinement)";
+  }
+  const std::size_t flatShown = std::min<std::size_t>(facts.flat.size(), 2);
+  for (std::size_t k = 0; k < flatShown; ++k) {
+    const std::string what = flatWhat(facts.flat[k], facts);
+    s += k == 0 ? "; it " + what : what == flatWhat(facts.flat[k - 1], facts) ? " and" : " and " + what;
+    s += " " + extentText(facts.flat[k], facts);
+  }
+  if (facts.flat.size() > flatShown)
+    s += " and on " + std::to_string(facts.flat.size() - flatShown) + " more stretches";
+  if (!facts.flat.empty()) s += ": no gradient there";
+  if (std::isfinite(f.lipschitz))
+    s += "; slope at most " + shortNumber(f.lipschitz) + (f.jumps.empty() ? "" : " off the jumps");
+  if (std::isnan(facts.best.first)) s += "; it is +∞ at every θ that did not fail";
+  else if (f.monotone) s += "; it grows with distance from " + bestText(facts);
+  else s += "; it does not grow steadily away from " + bestText(facts);
+  if (facts.failed > 0)
+    s += " (failed at " + std::to_string(facts.failed) + " of " + std::to_string(facts.samples) + " θ values" +
+         (facts.failure.empty() ? std::string() : ": " + facts.failure) + ")";
+  return s;
+}
+
+}  // namespace barrow

@@ -1,0 +1,38 @@
+#include "sweep/findings_json.h"
+
+#include <cmath>
+
+namespace barrow {
+
+namespace {
+nlohmann::ordered_json number(double v) { return std::isfinite(v) ? nlohmann::ordered_json(v) : nlohmann::ordered_json(); }
+}  // namespace
+
+nlohmann::ordered_json findingsToJson(const std::vector<Finding>& findings) {
+  nlohmann::ordered_json list = nlohmann::ordered_json::array();
+  for (const Finding& f : findings) {
+    nlohmann::ordered_json jumps = nlohmann::ordered_json::array();
+    for (const Jump& j : f.jumps) {
+      nlohmann::ordered_json jump;
+      jump["theta"] = j.theta;
+      jump["size"] = number(j.size);
+      jumps.push_back(jump);
+    }
+    nlohmann::ordered_json flat = nlohmann::ordered_json::array();
+    for (const auto& [lo, hi] : f.flat) flat.push_back({lo, hi});
+    nlohmann::ordered_json row;  // keys in the contract's order
+    row["id"] = f.id;
+    row["continuous"] = f.continuous;
+    row["jumps"] = jumps;
+    row["flat"] = flat;
+    row["lipschitz"] = number(f.lipschitz);
+    row["monotone"] = f.monotone;
+    row["summary"] = f.summary;
+    list.push_back(row);
+  }
+  nlohmann::ordered_json out;
+  out["findings"] = list;
+  return out;
+}
+
+}  // namespace barrow

@@ -1,0 +1,259 @@
+#include "sweep/sweep_engine.h"
+
+#include <algorithm>
+#include <atomic>
+#include <chrono>
+#include <cmath>
+#include <mutex>
+#include <thread>
+
+#include "families/family_map.h"
+#include "measures/registry.h"
+#include "sweep/finite_slope.h"
+#include "sweep/sweep_job.h"
+
+namespace barrow {
+
+namespace {
+
+struct Row {
+  double theta = 0.0;
+  std::vector<SweepCell> cells;
+};
+
+// Share of the progress bar given to the grid when refinement follows it.
+constexpr double kGridShare = 0.85;
+
+class SweepRun {
+ public:
+  SweepRun(const Cloud& b, const FamilyMap& family, const std::vector<SweepJob>& jobs,
+           const SweepRequest& req, const RunControl* control, int threads)
+      : b_(b), family_(family), jobs_(jobs), req_(req), outer_(control), threads_(threads),
+        warm_(std::size_t(threads), std::vector<std::shared_ptr<WarmState>>(jobs.size())) {
+    // Measures see the caller's cancel flag directly, and our own stop (set when the
+    // caller's progress callback says stop) through the progress hook.
+    inner_.cancel = outer_ && outer_->cancel ? outer_->cancel : &stop_;
+    inner_.onProgress = [this](double) { return !stop_.load(); };
+    needVelocity_ = std::any_of(jobs.begin(), jobs.end(), [](const SweepJob& j) { return j.analytic(); });
+  }
+
+  const RunControl* inner() const { return &inner_; }
+  bool stopped() const {
+    return stop_.load() || (inner_.cancel && inner_.cancel->load(std::memory_order_relaxed));
+  }
+
+  /// Evaluates every measure at each row (rows sorted by θ), split into contiguous chunks,
+  /// one per thread, so that warm starts pass between neighbouring θ.
+  void evaluate(std::vector<Row*>& rows, double progressFrom, double progressTo) {
+    const int t = std::max(1, std::min<int>(threads_, int(rows.size())));
+    std::atomic<std::size_t> done{0};
+    auto work = [&](int chunk) {
+      const std::size_t lo = rows.size() * std::size_t(chunk) / std::size_t(t);
+      const std::size_t hi = rows.size() * std::size_t(chunk + 1) / std::size_t(t);
+      for (std::size_t k = lo; k < hi && !stopped(); ++k) {
+        Row& row = *rows[k];
+        const Cloud at = family_.at(row.theta);
+        const Eigen::MatrixX2d vel = needVelocity_ ? family_.velocity(row.theta) : Eigen::MatrixX2d();
+        for (std::size_t j = 0; j < jobs_.size() && !stopped(); ++j) {
+          auto* warm = req_.warmStart ? &warm_[std::size_t(chunk)][j] : nullptr;
+          row.cells[j] = jobs_[j].evaluate(at, b_, vel, warm, &inner_);
+        }
+        const double f = double(++done) / double(rows.size());
+        report(progressFrom + (progressTo - progressFrom) * f);
+      }
+    };
+    std::vector<std::thread> pool;
+    for (int c = 1; c < t; ++c) pool.emplace_back(work, c);
+    work(0);
+    for (auto& th : pool) th.join();
+  }
+
+ private:
+  void report(double fraction) {
+    if (!outer_) return;
+    std::lock_guard<std::mutex> lock(reportMutex_);
+    if (outer_->shouldStop(std::min(fraction, 1.0))) stop_ = true;
+  }
+
+  const Cloud& b_;
+  const FamilyMap& family_;
+  const std::vector<SweepJob>& jobs_;
+  const SweepRequest& req_;
+  const RunControl* outer_;
+  int threads_;
+  std::vector<std::vector<std::shared_ptr<WarmState>>> warm_;  // [thread][measure]
+  RunControl inner_;
+  std::atomic<bool> stop_{false};
+  std::mutex reportMutex_;
+  bool needVelocity_ = false;
+};
+
+std::vector<Row*> sortedRows(std::vector<std::unique_ptr<Row>>& rows) {
+  std::vector<Row*> out;
+  for (auto& r : rows) out.push_back(r.get());
+  std::sort(out.begin(), out.end(), [](const Row* x, const Row* y) { return x->theta < y->theta; });
+  return out;
+}
+
+/// Midpoints of the intervals some series finds jump-like and wider than `tol`, largest
+/// relative step first, without duplicates.
+std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t measures,
+                                     const StepRule& rule, double tol) {
+  std::vector<double> theta(rows.size());
+  for (std::size_t k = 0; k < rows.size(); ++k) theta[k] = rows[k]->theta;
+  std::vector<std::pair<double, double>> wanted;  // (priority, midpoint)
+  std::vector<double> value(rows.size());
+  for (std::size_t j = 0; j < measures; ++j) {
+    for (std::size_t k = 0; k < rows.size(); ++k) value[k] = rows[k]->cells[j].value;
+    const double range = finiteRange(value);
+    for (const StepInterval& s : classifySteps(theta, value, rule)) {
+      if (!s.jumpLike || theta[s.right] - theta[s.left] <= tol) continue;
+      const double priority = std::isfinite(s.step) ? std::abs(s.step) / std::max(range, 1e-300) : 2.0;
+      wanted.push_back({priority, 0.5 * (theta[s.left] + theta[s.right])});
+    }
+  }
+  std::sort(wanted.begin(), wanted.end(), [](auto& x, auto& y) { return x.first > y.first; });
+  std::vector<double> out;
+  for (const auto& w : wanted)
+    if (std::find(out.begin(), out.end(), w.second) == out.end()) out.push_back(w.second);
+  return out;
+}
+
+std::optional<std::string> checkRequest(const SweepRequest& req) {
+  if (auto e = req.settings.validate()) return e;
+  if (req.threads < 0) return "the thread count must be 0 (all cores) or positive";
+  if (!(req.thetaTolerance >= 0) || !std::isfinite(req.thetaTolerance))
+    return "the θ tolerance must be a finite number >= 0";
+  if (req.maxRefinePoints < 0) return "the refinement budget must be >= 0";
+  const StepRule& r = req.stepRule;
+  if (!(r.factor > 1) || !std::isfinite(r.factor) || r.window < 1 || !(r.floor >= 0) || !std::isfinite(r.floor))
+    return "the jump rule needs factor > 1, window >= 1 and floor >= 0";
+  return std::nullopt;
+}
+
+}  // namespace
+
+SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, const RunControl* control) {
+  const auto start = std::chrono::steady_clock::now();
+  SweepResult out;
+  out.settings = req.settings;
+  out.warmStart = req.warmStart;
+  auto finish = [&](std::string message) {
+    out.message = std::move(message);
+    out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    return out;
+  };
+  if (auto e = checkRequest(req)) return finish(*e);
+  const SweepSettings& s = req.settings;
+
+  std::vector<const Measure*> measures;
+  const auto& registry = MeasureRegistry::instance();
+  if (!req.measureObjects.empty()) {
+    measures = req.measureObjects;
+    if (std::count(measures.begin(), measures.end(), nullptr)) return finish("a measure object is null");
+  } else if (s.measures.empty()) {
+    measures = registry.all();
+  } else {
+    for (const auto& id : s.measures) {
+      const Measure* m = registry.find(id);
+      if (!m) return finish("unknown or unavailable measure '" + id + "'");
+      measures.push_back(m);
+    }
+  }
+  if (measures.empty()) return finish("no measure is available to sweep");
+
+  const FamilyMap family(a, b, s);
+  if (auto e = family.error()) return finish(*e);
+
+  const int threads = req.threads > 0 ? req.threads : std::max(1, int(std::thread::hardware_concurrency()));
+  out.threads = threads;
+
+  // Freeze data-dependent settings on (A_θ0, B) and probe each measure there once.
+  const double theta0 = s.reference.value_or(s.from);
+  const Cloud a0 = family.at(theta0);
+  const bool velocity = s.family != "mix" && req.analyticGradients;
+  std::vector<SweepJob> jobs;
+  jobs.reserve(measures.size());
+  RunControl probeControl;
+  if (control) probeControl.cancel = control->cancel;
+  for (const Measure* m : measures) jobs.emplace_back(*m, req.params, a0, b, velocity, &probeControl);
+
+  std::vector<std::unique_ptr<Row>> rows;
+  for (int k = 0; k < s.steps; ++k) {
+    auto row = std::make_unique<Row>();
+    row->theta = k + 1 == s.steps ? s.to : s.from + (s.to - s.from) * double(k) / double(s.steps - 1);
+    row->cells.resize(jobs.size());
+    rows.push_back(std::move(row));
+  }
+  SweepRun run(b, family, jobs, req, control, threads);
+  std::vector<Row*> order = sortedRows(rows);
+  run.evaluate(order, 0.0, req.refineJumps ? kGridShare : 1.0);
+
+  if (req.refineJumps && !run.stopped()) {
+    const double tol = req.thetaTolerance > 0 ? req.thetaTolerance : 1e-5 * (s.to - s.from);
+    const int budget = req.maxRefinePoints > 0 ? req.maxRefinePoints : std::max(64, s.steps);
+    out.refineTolerance = tol;
+    while (!run.stopped()) {
+      order = sortedRows(rows);
+      std::vector<double> mids = refinementPoints(order, jobs.size(), req.stepRule, tol);
+      if (mids.empty()) break;
+      const int room = budget - out.refinedPoints;
+      if (room <= 0) {
+        out.refineBudgetHit = true;
+        break;
+      }
+      if (int(mids.size()) > room) mids.resize(std::size_t(room));
+      std::sort(mids.begin(), mids.end());
+      std::vector<Row*> fresh;
+      for (double t : mids) {
+        auto row = std::make_unique<Row>();
+        row->theta = t;
+        row->cells.resize(jobs.size());
+        fresh.push_back(row.get());
+        rows.push_back(std::move(row));
+      }
+      const double f0 = kGridShare + (1 - kGridShare) * out.refinedPoints / budget;
+      out.refinedPoints += int(mids.size());
+      run.evaluate(fresh, f0, kGridShare + (1 - kGridShare) * out.refinedPoints / budget);
+    }
+  }
+
+  order = sortedRows(rows);
+  for (const Row* r : order) out.theta.push_back(r->theta);
+  for (std::size_t j = 0; j < jobs.size(); ++j) {
+    SweepSeries ser;
+    ser.id = jobs[j].measure().id();
+    ser.frozen = jobs[j].frozen();
+    ser.details = jobs[j].referenceDetails();
+    ser.gradientMethod = jobs[j].analytic() ? "analytic" : "finite-difference";
+    for (const Row* r : order) {
+      const SweepCell& c = r->cells[j];
+      ser.value.push_back(c.value);
+      ser.status.push_back(c.status);
+      ser.seconds.push_back(c.seconds);
+      ser.oneSided.push_back(c.oneSided);
+      if (ser.message.empty() && !c.message.empty() && c.status != Status::Cancelled) ser.message = c.message;
+    }
+    std::vector<bool> jumpAfter(order.size(), false);  // no differences across a jump
+    for (const StepInterval& st : classifySteps(out.theta, ser.value, req.stepRule))
+      if (st.jumpLike && st.right == st.left + 1) jumpAfter[st.left] = true;
+    const std::vector<double> fd = finiteDifferenceSlopes(out.theta, ser.value, jumpAfter);
+    int fallbacks = 0;
+    for (std::size_t k = 0; k < order.size(); ++k) {
+      const SweepCell& c = order[k]->cells[j];
+      if (c.analyticSlope) {
+        ser.slope.push_back(c.slope);
+      } else {
+        ser.slope.push_back(fd[k]);
+        if (jobs[j].analytic() && std::isfinite(c.value)) ++fallbacks;
+      }
+    }
+    if (fallbacks > 0) ser.details["gradient_fallbacks"] = fallbacks;
+    if (!jobs[j].setupError().empty()) ser.message = jobs[j].setupError();
+    out.series.push_back(std::move(ser));
+  }
+  out.cancelled = run.stopped();
+  return finish(out.cancelled ? "cancelled before the sweep finished; the rest is left empty" : "");
+}
+
+}  // namespace barrow

@@ -1,0 +1,91 @@
+#include "sweep/sweep_job.h"
+
+#include <cmath>
+#include <exception>
+
+#include "measures/evaluate.h"
+
+namespace barrow {
+
+namespace {
+
+std::optional<Eigen::MatrixX2d> tryGradient(const Measure& m, const Cloud& at, const Cloud& b,
+                                            const ParamSet& frozen, const Result& r,
+                                            const RunControl* control) {
+  std::string error;
+  EvalContext ctx;
+  ctx.params = resolveParams(m, frozen, &error);
+  ctx.control = control;
+  ctx.wantPlan = true;
+  if (!error.empty()) return std::nullopt;
+  try {
+    auto g = m.gradientA(at, b, ctx, r);
+    if (g && g->rows() == at.size() && g->allFinite()) return g;
+  } catch (const std::exception&) {
+    // A gradient that throws is treated as absent; the value itself is unaffected.
+  }
+  return std::nullopt;
+}
+
+bool planNotUnique(const nlohmann::json& details) {
+  const auto it = details.find("plan_unique");
+  return it != details.end() && it->is_boolean() && !it->get<bool>();
+}
+
+}  // namespace
+
+SweepJob::SweepJob(const Measure& m, const ParamSet& user, const Cloud& a0, const Cloud& b,
+                   bool wantAnalytic, const RunControl* control)
+    : m_(&m) {
+  std::string error;
+  const ParamSet resolved = resolveParams(m, user, &error);
+  if (!error.empty()) {
+    setupError_ = error;
+    return;
+  }
+  try {
+    frozen_ = m.freeze(a0, b, resolved);
+  } catch (const std::exception& e) {
+    setupError_ = m.id() + ": freezing the settings at the reference θ failed: " + e.what();
+    return;
+  }
+  EvalRequest req;
+  req.params = frozen_;
+  req.control = control;
+  req.wantPlan = wantAnalytic;
+  const Result r = evaluateMeasure(m, a0, b, req);
+  details_ = r.details;
+  if (wantAnalytic && r.usable() && std::isfinite(r.value))
+    analytic_ = tryGradient(m, a0, b, frozen_, r, control).has_value();
+}
+
+SweepCell SweepJob::evaluate(const Cloud& at, const Cloud& b, const Eigen::MatrixX2d& velocity,
+                             std::shared_ptr<WarmState>* warm, const RunControl* control) const {
+  SweepCell c;
+  if (!setupError_.empty()) {
+    c.status = Status::InvalidInput;
+    c.message = setupError_;
+    return c;
+  }
+  EvalRequest req;
+  req.params = frozen_;
+  req.control = control;
+  req.warm = warm;
+  req.wantPlan = analytic_;
+  const Result r = evaluateMeasure(*m_, at, b, req);
+  c.status = r.status;
+  c.seconds = r.seconds;
+  if (r.status == Status::Infinite) c.value = INFINITY;
+  else if (r.usable()) c.value = r.value;
+  if (r.status != Status::Ok) c.message = r.message;
+  c.oneSided = planNotUnique(r.details);
+  if (analytic_ && std::isfinite(c.value) && velocity.rows() == at.size()) {
+    if (auto g = tryGradient(*m_, at, b, frozen_, r, control)) {
+      c.slope = (g->array() * velocity.array()).sum();
+      c.analyticSlope = true;
+    }
+  }
+  return c;
+}
+
+}  // namespace barrow
