@@ -4,6 +4,7 @@
 #include "density/density_estimates.h"
 #include "density/kde_integral.h"
 #include "density/kde_pair.h"
+#include "density/kde_tv_rows.h"
 #include "density/pooled_stats.h"
 
 namespace barrow {
@@ -32,21 +33,29 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
   if (!bw.note.empty()) d["bandwidth_note"] = bw.note;
 
   const KdeGridOptions opt;
-  const KdePairGrid pair = evaluateKdePair(a, b, bw.s, opt, ctx.control);
-  if (pair.cancelled) {
+  const ExactLogs exact{kind == DivergenceKind::KlBA, kind == DivergenceKind::KlAB};
+  const KdePairGrid pair = evaluateKdePair(a, b, bw.s, opt, exact, ctx.control);
+  bool cancelled = pair.cancelled;
+  KdeIntegral in;
+  if (!cancelled)
+    in = kind == DivergenceKind::Tv ? kdeTotalVariation(a, b, pair, opt.window, ctx.control, &cancelled)
+                                    : integrateKdeDivergence(pair, kind);
+  if (cancelled) {
     Result r;
     r.status = Status::Cancelled;
     r.message = "cancelled";
     r.details = std::move(d);
     return r;
   }
-  const KdeIntegral in = integrateKdeDivergence(pair, kind);
   const KdeGrid& g = pair.grid;
   d["grid_size"] = {g.x.count, g.y.count};
   d["grid_step"] = {g.x.step, g.y.step};
   d["grid_origin"] = {g.x.start, g.y.start};
   d["nodes_per_bandwidth"] = g.nodesPerBandwidth;
-  d["integration"] = "rectangle rule on the grid nodes; error = |I(h) - I(2h)| + outside-mass tail";
+  d["integration"] = kind == DivergenceKind::Tv
+                         ? "x exact between the crossings of f_A and f_B, rectangle rule over rows in y; "
+                           "error = |I(h) - I(2h)| + outside-mass tail"
+                         : "rectangle rule on the grid nodes; error = |I(h) - I(2h)| + outside-mass tail";
   d["error_estimate"] = in.errorEstimate;
   d["coarse_value"] = in.coarseValue;
   d["mass_on_grid"] = {in.massA, in.massB};

@@ -67,17 +67,26 @@ bool addKdeOnGrid(const Cloud& c, const Eigen::Vector2d& s, const KdeGrid& g, do
     fill(g.x, x0, x1, c.points(i, 0), s.x(), kx);
     fill(g.y, y0, y1, c.points(i, 1), s.y(), ky);
     const double coef = w(i) * norm;
-    const int width = x1 - x0 + 1;
-    for (int iy = y0; iy <= y1; ++iy) {
+    // In node units: the point's x, the spacing of rows in bandwidths, nodes per x-bandwidth.
+    const double cx = (c.points(i, 0) - g.x.start) / g.x.step;
+    const double rowStep = g.y.step / s.y(), perBandwidth = s.x() / g.x.step;
+    double v = (g.y.at(y0) - c.points(i, 1)) / s.y();
+    for (int iy = y0; iy <= y1; ++iy, v += rowStep) {
+      // The disc's half-width on this row, in nodes, clipped to the square window.
+      const double half = std::sqrt(std::max(0.0, window * window - v * v)) * perBandwidth;
+      const int r0 = std::max(x0, int(std::ceil(cx - half)));
+      const int r1 = std::min(x1, int(std::floor(cx + half)));
       const double cy = coef * ky[std::size_t(iy - y0)];
-      double* row = density.data() + std::size_t(iy) * std::size_t(g.x.count) + std::size_t(x0);
-      for (int t = 0; t < width; ++t) row[t] += cy * kx[std::size_t(t)];
+      if (r1 < r0) continue;
+      double* row = density.data() + std::size_t(iy) * std::size_t(g.x.count) + r0;
+      Eigen::Map<Eigen::ArrayXd>(row, r1 - r0 + 1) +=
+          cy * Eigen::Map<const Eigen::ArrayXd>(kx.data() + (r0 - x0), r1 - r0 + 1);
     }
   }
   return true;
 }
 
-ExactLogKde::ExactLogKde(const Cloud& c, const Eigen::Vector2d& s) : s_(s) {
+UncutLogKde::UncutLogKde(const Cloud& c, const Eigen::Vector2d& s, const GridAxis& x) : s_(s), axis_(&x) {
   const Eigen::VectorXd w = c.normalizedWeights();
   const Eigen::Index m = (w.array() > 0).count();
   x_.resize(m);
@@ -92,13 +101,23 @@ ExactLogKde::ExactLogKde(const Cloud& c, const Eigen::Vector2d& s) : s_(s) {
     logWeight_(k) = std::log(w(i)) + logNorm;
     ++k;
   }
-  scratch_.resize(m);
+  kx_.resize(m, x.count);
+  for (int ix = 0; ix < x.count; ++ix)
+    kx_.col(ix) = (-0.5 * ((x_ - x.at(ix)) / s.x()).square()).exp().matrix();
 }
 
-double ExactLogKde::at(double x, double y) {
-  scratch_ = logWeight_ - 0.5 * (((x_ - x) / s_.x()).square() + ((y_ - y) / s_.y()).square());
-  const double top = scratch_.maxCoeff();
-  return top + std::log((scratch_ - top).exp().sum());
+void UncutLogKde::beginRow(double y) {
+  rowY_ = y;
+  row_ = (logWeight_ - 0.5 * ((y_ - y) / s_.y()).square()).exp().matrix();
+}
+
+double UncutLogKde::at(int ix) const {
+  const double f = kx_.col(ix).dot(row_);
+  if (f > 1e-280) return std::log(f);
+  const double x = axis_->at(ix);
+  const Eigen::ArrayXd e = logWeight_ - 0.5 * (((x_ - x) / s_.x()).square() + ((y_ - rowY_) / s_.y()).square());
+  const double top = e.maxCoeff();
+  return top + std::log((e - top).exp().sum());
 }
 
 }  // namespace barrow

@@ -1,8 +1,9 @@
 // The product Gaussian KDE of a weighted cloud evaluated on the nodes of a regular grid.
 //   f(x, y) = Σ_i w_i φ((x − x_i)/s_x) φ((y − y_i)/s_y) / (s_x s_y),   φ the N(0,1) density,
 // with normalised weights w. Each point adds its kernel on the nodes within `window` bandwidths
-// per axis (a separable outer product: O(n·(2·window·q)²) for q nodes per bandwidth, instead
-// of n × grid). Outside that window a kernel is below e^{-window²/2} of its peak.
+// (in the metric scaled by s_x, s_y: a disc, filled row by row as a separable product, about
+// (π/4)(2·window·q)² nodes for q nodes per bandwidth, instead of n × grid). Outside that disc a
+// kernel is below e^{-window²/2} of its peak.
 #pragma once
 
 #include <Eigen/Core>
@@ -44,18 +45,25 @@ KdeGrid makeKdeGrid(const Eigen::Vector2d& lo, const Eigen::Vector2d& hi, const 
 bool addKdeOnGrid(const Cloud& c, const Eigen::Vector2d& s, const KdeGrid& g, double window,
                   std::vector<double>& density, const RunControl* ctl, double p0, double p1);
 
-/// ln f at any point by a full log-sum-exp over the cloud (no cut, no underflow): used where
-/// the cut sum is too small to be accurate, e.g. far from the cloud. O(n) per call; keeps a
-/// scratch buffer, so one instance per thread.
-class ExactLogKde {
+/// ln f at grid nodes without the cut, accurate in relative terms however small f is — for
+/// nodes where the cut sum is negligible but its logarithm is needed (KL far from a cloud).
+/// f(x_ix, y) = Σ_i K_x(ix, i) v_i, with the x-kernels K_x precomputed for every node column
+/// and v_i = w_i φ((y − y_i)/s_y)/(s_x s_y) per row: n multiply-adds per node. The sum is exact
+/// to rounding while it stays above 1e-280 (every term that matters is a normal double); below
+/// that, a log-sum-exp over all points. Keeps per-row state: one instance per thread.
+class UncutLogKde {
  public:
-  ExactLogKde(const Cloud& c, const Eigen::Vector2d& s);
-  double at(double x, double y);
+  UncutLogKde(const Cloud& c, const Eigen::Vector2d& s, const GridAxis& x);
+  void beginRow(double y);
+  double at(int ix) const;
 
  private:
-  Eigen::ArrayXd x_, y_, logWeight_;  // points of positive weight; ln(w_i/(2π s_x s_y))
   Eigen::Vector2d s_;
-  Eigen::ArrayXd scratch_;
+  const GridAxis* axis_;
+  Eigen::ArrayXd x_, y_, logWeight_;  // points of positive weight; ln(w_i/(2π s_x s_y))
+  Eigen::MatrixXd kx_;                // n × columns: exp(−½((x_ix − x_i)/s_x)²)
+  Eigen::VectorXd row_;               // v_i for the current row
+  double rowY_ = 0.0;
 };
 
 }  // namespace barrow

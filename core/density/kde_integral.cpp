@@ -7,16 +7,19 @@ namespace barrow {
 
 namespace {
 
+// f·(ln f − ln g) with 0·ln 0 = 0 (a density that underflowed to 0 adds nothing).
+double xlog(double f, double lf, double lg) { return f > 0 ? f * (lf - lg) : 0.0; }
+
 double integrand(DivergenceKind kind, double la, double lb) {
   const double fa = std::exp(la), fb = std::exp(lb);
   switch (kind) {
-    case DivergenceKind::KlAB: return fa * (la - lb);
-    case DivergenceKind::KlBA: return fb * (lb - la);
+    case DivergenceKind::KlAB: return xlog(fa, la, lb);
+    case DivergenceKind::KlBA: return xlog(fb, lb, la);
     case DivergenceKind::Js: {
       // ln of the mixture (f_A + f_B)/2 without forming a sum that may underflow.
       const double top = std::max(la, lb);
       const double lm = top + std::log(std::exp(la - top) + std::exp(lb - top)) - std::log(2.0);
-      return 0.5 * (fa * (la - lm) + fb * (lb - lm));
+      return 0.5 * (xlog(fa, la, lm) + xlog(fb, lb, lm));
     }
     case DivergenceKind::Tv: return 0.5 * std::abs(fa - fb);
     case DivergenceKind::Hellinger: {
@@ -42,7 +45,7 @@ KdeIntegral integrateKdeDivergence(const KdePairGrid& grid, DivergenceKind kind)
       if (ix % 2 == 0 && iy % 2 == 0) coarse += v;
       massA += std::exp(la);
       massB += std::exp(lb);
-      maxRatio = std::max(maxRatio, std::abs(la - lb));
+      if (std::isfinite(la) && std::isfinite(lb)) maxRatio = std::max(maxRatio, std::abs(la - lb));
     }
   const double area = g.x.step * g.y.step;
   KdeIntegral r;
@@ -71,7 +74,7 @@ KdeIntegral integrateKdeDivergence(const KdePairGrid& grid, DivergenceKind kind)
     r.coarseValue = std::sqrt(r.coarseValue);
     tail = std::sqrt(h2 + tail) - r.value;
   }
-  r.errorEstimate = std::abs(r.value - r.coarseValue) + tail;
+  r.errorEstimate = std::abs(r.value - r.coarseValue) + tail + kRoundingAllowance * std::max(1.0, r.value);
   return r;
 }
 

@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <limits>
+#include <optional>
 
 namespace barrow {
 
@@ -22,7 +23,7 @@ void positiveBox(const Cloud& a, const Cloud& b, Eigen::Vector2d* lo, Eigen::Vec
 }  // namespace
 
 KdePairGrid evaluateKdePair(const Cloud& a, const Cloud& b, const Eigen::Vector2d& s,
-                            const KdeGridOptions& opt, const RunControl* ctl) {
+                            const KdeGridOptions& opt, ExactLogs exact, const RunControl* ctl) {
   KdePairGrid out;
   out.s = s;
   Eigen::Vector2d lo, hi;
@@ -37,26 +38,34 @@ KdePairGrid evaluateKdePair(const Cloud& a, const Cloud& b, const Eigen::Vector2
     return out;
   }
   const double threshold = std::exp(-25.0) / (2.0 * M_PI * s.x() * s.y());
-  const double minusInf = -std::numeric_limits<double>::infinity();
-  out.logA.assign(cells, minusInf);
-  out.logB.assign(cells, minusInf);
+  out.logA.resize(cells);
+  out.logB.resize(cells);
   out.included.assign(cells, 0);
-  ExactLogKde exactA(a, s), exactB(b, s);
+  std::optional<UncutLogKde> exactA, exactB;
+  if (exact.a) exactA.emplace(a, s, g.x);
+  if (exact.b) exactB.emplace(b, s, g.x);
   for (int iy = 0; iy < g.y.count; ++iy) {
     if ((iy & 15) == 0 && ctl && ctl->shouldStop(0.6 + 0.4 * double(iy) / g.y.count)) {
       out.cancelled = true;
       return out;
     }
     const double y = g.y.at(iy);
+    if (exactA) exactA->beginRow(y);
+    if (exactB) exactB->beginRow(y);
     for (int ix = 0; ix < g.x.count; ++ix) {
       const std::size_t c = std::size_t(iy) * std::size_t(g.x.count) + std::size_t(ix);
       const bool nearA = da[c] >= threshold, nearB = db[c] >= threshold;
-      if (!nearA && !nearB) continue;
+      if (!nearA && !nearB) {
+        // Outside the integration region, but the signs of f_A − f_B still matter to TV.
+        out.logA[c] = std::log(da[c]);
+        out.logB[c] = std::log(db[c]);
+        continue;
+      }
       out.included[c] = 1;
-      const double x = g.x.at(ix);
-      out.logA[c] = nearA ? std::log(da[c]) : exactA.at(x, y);
-      out.logB[c] = nearB ? std::log(db[c]) : exactB.at(x, y);
-      out.exactNodes += !nearA + !nearB;
+      const bool fullA = exact.a && !nearA, fullB = exact.b && !nearB;
+      out.logA[c] = fullA ? exactA->at(ix) : std::log(da[c]);
+      out.logB[c] = fullB ? exactB->at(ix) : std::log(db[c]);
+      out.exactNodes += fullA + fullB;
     }
   }
   return out;
