@@ -1,11 +1,44 @@
-// barrow-cli findings (see DESIGN.md for the contract). The engine behind it is not built yet.
+// barrow-cli findings --sweep sweep.csv [--json]
+// barrow-cli findings <the sweep options> [--out sweep.csv] [--json]
+// One line per measure (its plain-words summary), or the contract's JSON with --json.
+#include <cstdio>
+#include <iostream>
+
 #include "cli/cli_common.h"
 #include "cli/commands.h"
+#include "sweep/continuity.h"
+#include "sweep/findings_json.h"
+#include "sweep/sweep_csv.h"
 
 namespace barrow::cli {
 
-int runFindings(const std::vector<std::string>&) {
-  throw InternalError{"'findings' is not available yet: the continuity findings engine is not built in this version"};
+int runFindings(const std::vector<std::string>& argv) {
+  std::vector<std::string> valued = sweepOptionNames();
+  valued.push_back("sweep");
+  valued.push_back("out");
+  const CliArgs args("findings", argv, valued, {"json", "no-refine", "no-warm-start"});
+  SweepResult r;
+  if (args.has("sweep")) {
+    for (const auto& name : sweepOptionNames())
+      if (args.has(name)) throw UsageError{"give either --sweep FILE or the sweep options, not both (--" + name + ")"};
+    if (args.has("out")) throw UsageError{"--out writes a new sweep; it has no use with --sweep"};
+    auto loaded = readSweepCsv(*args.value("sweep"));
+    if (!loaded) throw InputError{loaded.error.text()};
+    r = std::move(*loaded.value);
+  } else {
+    if (!args.has("a") && !args.has("b")) throw UsageError{"'findings' needs --sweep FILE or the sweep options (--a, --b, --family, ...)"};
+    r = sweepFromArgs(args);
+    if (args.has("out"))
+      if (auto e = writeSweepCsv(*args.value("out"), r)) throw InputError{*e};
+  }
+  const auto findings = findContinuity(r);
+  if (args.flag("json")) {
+    std::cout << findingsToJson(findings).dump() << "\n";
+  } else {
+    for (const auto& f : findings) std::printf("%s\n", f.summary.c_str());
+    if (!args.has("sweep")) printSweepNotes(r, stdout);
+  }
+  return kExitOk;
 }
 
 }  // namespace barrow::cli

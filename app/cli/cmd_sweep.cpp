@@ -1,11 +1,108 @@
-// barrow-cli sweep (see DESIGN.md for the contract). The engine behind it is not built yet.
+// barrow-cli sweep --a A.csv --b B.csv --family shift|rotate|scale|interpolate|mix
+//   [--direction dx,dy] [--center x,y] [--from F --to T --steps N] [--reference R]
+//   [--measures ids] [--set k=v ...] [--threads N] [--no-refine] [--no-warm-start] --out sweep.csv
+#include <unistd.h>
+
+#include <cstdio>
+#include <mutex>
+
 #include "cli/cli_common.h"
 #include "cli/commands.h"
+#include "families/family_map.h"
+#include "sweep/sweep_csv.h"
+#include "sweep/sweep_engine.h"
 
 namespace barrow::cli {
 
-int runSweep(const std::vector<std::string>&) {
-  throw InternalError{"'sweep' is not available yet: the sweep engine is not built in this version"};
+namespace {
+
+std::array<double, 2> pairOption(const CliArgs& args, const std::string& name) {
+  const auto parts = splitList(*args.value(name));
+  std::optional<double> x, y;
+  if (parts.size() == 2) x = parseNumber(parts[0]), y = parseNumber(parts[1]);
+  if (!x || !y || !std::isfinite(*x) || !std::isfinite(*y))
+    throw UsageError{"--" + name + ": expected two numbers 'x,y', got '" + *args.value(name) + "'"};
+  return {*x, *y};
+}
+
+SweepRequest requestFromArgs(const CliArgs& args) {
+  SweepRequest req;
+  SweepSettings& s = req.settings;
+  s.family = args.required("family");
+  const auto [lo, hi] = defaultFamilyRange(s.family);
+  s.from = args.number("from", lo);
+  s.to = args.number("to", hi);
+  s.steps = args.integer("steps", s.steps);
+  if (args.has("reference")) s.reference = args.number("reference", s.from);
+  if (args.has("direction")) s.direction = pairOption(args, "direction");
+  if (args.has("center")) s.center = pairOption(args, "center");
+  for (const Measure* m : selectMeasures(args)) s.measures.push_back(m->id());
+  if (auto e = s.validate()) throw InputError{*e};
+  req.params = parseSets(args);
+  req.threads = args.integer("threads", 0);
+  if (req.threads < 0) throw UsageError{"--threads: expected 0 (all cores) or a positive number"};
+  req.refineJumps = !args.flag("no-refine");
+  req.warmStart = !args.flag("no-warm-start");
+  return req;
+}
+
+}  // namespace
+
+const std::vector<std::string>& sweepOptionNames() {
+  static const std::vector<std::string> names = {"a", "b", "family", "direction", "center", "from", "to",
+                                                 "steps", "reference", "measures", "threads"};
+  return names;
+}
+
+SweepResult sweepFromArgs(const CliArgs& args) {
+  const Cloud a = loadCloud(args.required("a"));
+  const Cloud b = loadCloud(args.required("b"));
+  return runSweepWithProgress(a, b, requestFromArgs(args));
+}
+
+SweepResult runSweepWithProgress(const Cloud& a, const Cloud& b, const SweepRequest& req) {
+  RunControl control;
+  int shown = -1;
+  std::mutex mutex;
+  const bool terminal = isatty(STDERR_FILENO);
+  if (terminal)
+    control.onProgress = [&](double f) {
+      const int percent = int(f * 100);
+      std::lock_guard<std::mutex> lock(mutex);
+      if (percent / 10 != shown / 10) {
+        shown = percent;
+        std::fprintf(stderr, "\rsweeping: %3d%%", percent);
+        std::fflush(stderr);
+      }
+      return true;
+    };
+  SweepResult r = barrow::runSweep(a, b, req, &control);
+  if (terminal && shown >= 0) std::fprintf(stderr, "\rsweeping: done\n");
+  if (r.theta.empty()) throw InputError{r.message};
+  return r;
+}
+
+void printSweepNotes(const SweepResult& r, std::FILE* to) {
+  for (const auto& s : r.series) {
+    std::size_t failed = 0;
+    for (Status st : s.status) failed += !(st == Status::Ok || st == Status::Infinite || st == Status::NotConverged);
+    if (failed > 0)
+      std::fprintf(to, "  note: %s failed at %zu of %zu θ values: %s\n", s.id.c_str(), failed, s.status.size(),
+                   s.message.c_str());
+  }
+}
+
+int runSweep(const std::vector<std::string>& argv) {
+  std::vector<std::string> valued = sweepOptionNames();
+  valued.push_back("out");
+  const CliArgs args("sweep", argv, valued, {"no-refine", "no-warm-start"});
+  const std::string out = args.required("out");
+  const SweepResult r = sweepFromArgs(args);
+  if (auto e = writeSweepCsv(out, r)) throw InputError{*e};
+  std::printf("wrote %s: %zu θ values (%d added near suspected jumps) × %zu measures in %.2f s on %d threads\n",
+              out.c_str(), r.theta.size(), r.refinedPoints, r.series.size(), r.seconds, r.threads);
+  printSweepNotes(r, stdout);
+  return kExitOk;
 }
 
 }  // namespace barrow::cli

@@ -28,6 +28,16 @@ std::vector<std::pair<double, double>> flatStretches(const Curve& c, const Conti
   for (std::size_t k = 0; k < c.value.size(); ++k)
     if (!std::isnan(c.value[k])) first = std::min(first, c.theta[k]), last = std::max(last, c.theta[k]);
   const double slopeTol = o.flatSlope * c.range / std::max(last - first, 1e-300);
+  // A stretch must also span minFlatPoints − 1 typical spacings, so that a few refinement
+  // points packed between two small steps of a histogram are not called a stretch.
+  std::vector<double> gaps;
+  for (std::size_t k = 1; k < c.theta.size(); ++k) gaps.push_back(c.theta[k] - c.theta[k - 1]);
+  double typical = 0.0;
+  if (!gaps.empty()) {
+    std::nth_element(gaps.begin(), gaps.begin() + std::ptrdiff_t(gaps.size() / 2), gaps.end());
+    typical = gaps[gaps.size() / 2];
+  }
+  const double minExtent = (o.minFlatPoints - 1) * typical * (1 - 1e-9);
   const double minTol = o.nearMinimum * c.range;
   auto isFlat = [&](std::size_t k) {
     const double v = c.value[k];
@@ -43,7 +53,8 @@ std::vector<std::pair<double, double>> flatStretches(const Curve& c, const Conti
     }
     std::size_t e = k;
     while (e + 1 < c.value.size() && isFlat(e + 1)) ++e;
-    if (int(e - k + 1) >= o.minFlatPoints) out.push_back({c.theta[k], c.theta[e]});
+    if (int(e - k + 1) >= o.minFlatPoints && c.theta[e] - c.theta[k] >= minExtent)
+      out.push_back({c.theta[k], c.theta[e]});
     k = e + 1;
   }
   return out;

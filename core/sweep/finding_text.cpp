@@ -1,5 +1,6 @@
 #include "sweep/finding_text.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -35,7 +36,8 @@ std::string flatWhat(const FlatFacts& s, const FindingFacts& facts) {
   if (std::isinf(s.low)) return "is +∞";
   if (s.high - s.low <= facts.constantTolerance) return "is constant at " + shortNumber(s.low);
   if (std::isinf(s.high)) return "is flat or +∞";
-  return "is flat (between " + shortNumber(s.low) + " and " + shortNumber(s.high) + ")";
+  // Slopes below the threshold throughout, yet the values differ: they change by steps only.
+  return "is piecewise constant (" + shortNumber(s.low) + " to " + shortNumber(s.high) + ")";
 }
 
 std::string bestText(const FindingFacts& facts) {
@@ -59,10 +61,18 @@ std::string describeFinding(const Finding& f, const FindingFacts& facts) {
     if (!facts.refined) s += " on this grid";
   } else {
     s += " jumps ";
-    const std::size_t shown = std::min<std::size_t>(f.jumps.size(), 3);
+    // The largest jumps first when there are many; the rest are counted.
+    std::vector<Jump> listed = f.jumps;
+    const std::size_t shown = std::min<std::size_t>(listed.size(), 3);
+    if (listed.size() > shown) {
+      std::stable_sort(listed.begin(), listed.end(),
+                       [](const Jump& x, const Jump& y) { return std::abs(x.size) > std::abs(y.size); });
+      listed.resize(shown);
+      std::sort(listed.begin(), listed.end(), [](const Jump& x, const Jump& y) { return x.theta < y.theta; });
+    }
     for (std::size_t k = 0; k < shown; ++k)
-      s += (k == 0 ? "" : k + 1 == shown && shown == f.jumps.size() ? " and " : ", ") + jumpText(f.jumps[k]);
-    if (f.jumps.size() > shown) s += " and " + std::to_string(f.jumps.size() - shown) + " more times";
+      s += (k == 0 ? "" : k + 1 == shown && shown == f.jumps.size() ? " and " : ", ") + jumpText(listed[k]);
+    if (f.jumps.size() > shown) s += ", plus " + std::to_string(f.jumps.size() - shown) + " smaller jumps";
     s += facts.refined ? " (each confirmed by bisection)" : " (judged from the grid alone, without refinement)";
   }
   const std::size_t flatShown = std::min<std::size_t>(facts.flat.size(), 2);
@@ -72,7 +82,8 @@ std::string describeFinding(const Finding& f, const FindingFacts& facts) {
     s += " " + extentText(facts.flat[k], facts);
   }
   if (facts.flat.size() > flatShown)
-    s += " and on " + std::to_string(facts.flat.size() - flatShown) + " more stretches";
+    s += " and on " + std::to_string(facts.flat.size() - flatShown) + " more stretch" +
+         (facts.flat.size() - flatShown > 1 ? "es" : "");
   if (!facts.flat.empty()) s += ": no gradient there";
   if (std::isfinite(f.lipschitz))
     s += "; slope at most " + shortNumber(f.lipschitz) + (f.jumps.empty() ? "" : " off the jumps");
