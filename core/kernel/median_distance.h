@@ -6,11 +6,14 @@
 //
 // Exact at every size, with O(N) memory beyond a bounded candidate buffer:
 //  - up to `directLimit` points, all N(N-1)/2 squared distances are stored and selected;
-//  - above, a streamed radix selection on the bit patterns of the squared distances
-//    (non-negative doubles order like their bits): each pass recomputes the distances block
-//    by block on all cores, histograms the next 16 bits of the keys that share the prefix
-//    found so far, and stops once the bucket holding the median is small enough to collect.
-//    Typically 2-3 passes over the pairs.
+//  - above, streamed selection: the distances are recomputed block by block on all cores in
+//    each pass over the pairs, never stored. First try: a deterministic sample of up to 2^23
+//    pairs brackets the median rank (+-5 sd of the sample quantile); one pass counts the pairs below
+//    the bracket and collects those inside, which then hold the median (verified by the
+//    counts). If the bracket misses, or would hold more than half of candidateLimit values
+//    (pools above ~5*10^4 points), a radix selection on the bit patterns of the squared distances
+//    (non-negative doubles order like their bits) histograms 16 bits per pass until the
+//    median's bucket is small enough to collect: typically 2-3 passes.
 #pragma once
 
 #include <Eigen/Core>
@@ -23,6 +26,7 @@ namespace barrow {
 struct MedianDistanceOptions {
   Eigen::Index directLimit = 2048;            // points up to which all pairs are stored
   std::size_t candidateLimit = std::size_t(1) << 22;  // values collected in the final pass
+  bool sampleBracket = true;                  // try the one-pass sampled bracket first
   int threads = 0;                            // 0: all cores
 };
 

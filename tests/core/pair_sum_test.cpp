@@ -141,8 +141,8 @@ std::string pyMatrix(const Eigen::MatrixX2d& p) {
 }
 
 // Reference: numpy.median(scipy.spatial.distance.pdist(P)) (all pairs i < j; the mean of
-// the two middle values for an even count). The streamed radix selection is forced with tiny
-// limits so that every pass kind runs (histogram passes, collection, next-larger pass).
+// the two middle values for an even count). The streamed selections are forced with small
+// limits so that every pass kind runs (sampled bracket, histogram passes, collection).
 TEST(MedianDistanceTest, MatchesNumpyMedianOfPdist) {
   if (!test::pythonHas("numpy, scipy")) GTEST_SKIP() << "python3-numpy/scipy missing";
   std::vector<Eigen::MatrixX2d> sets;
@@ -164,13 +164,19 @@ TEST(MedianDistanceTest, MatchesNumpyMedianOfPdist) {
     out >> ref;
     const MedianDistance direct = medianPairwiseDistance(p, {});
     EXPECT_NEAR(direct.value, ref, 1e-14 * ref) << p.rows();
-    for (std::size_t limit : {std::size_t(1), std::size_t(50), std::size_t(1) << 30}) {
+    // limit 1 and 50: radix passes down to single values; 1000: the sampled bracket (one pass);
+    // 2^30: a single collecting pass.
+    for (std::size_t limit : {std::size_t(1), std::size_t(50), std::size_t(1000), std::size_t(1) << 30}) {
       MedianDistanceOptions forced;
       forced.directLimit = 0;
       forced.candidateLimit = limit;
       const MedianDistance streamed = medianPairwiseDistance(p, {}, forced);
       EXPECT_TRUE(streamed.complete);
       EXPECT_NEAR(streamed.value, ref, 1e-14 * ref) << p.rows() << " limit " << limit << " " << streamed.method;
+      if (limit == 1000 && p.rows() > 2 && p.rows() < 400)  // random sets (grid ties overfill it)
+        EXPECT_NE(streamed.method.find("bracket"), std::string::npos) << p.rows();
+      forced.sampleBracket = false;
+      EXPECT_NEAR(medianPairwiseDistance(p, {}, forced).value, ref, 1e-14 * ref) << p.rows() << " limit " << limit;
     }
   }
 }
