@@ -1,24 +1,132 @@
-// Barrow's main window.
+// Barrow's main window: the Field in the middle, the Measures, Sweep and Findings around it
+// (dockable, layout kept between runs), the menus, and the wiring between the session, the
+// live evaluation worker and the sweep.
 #pragma once
 
 #include <QMainWindow>
+#include <QTimer>
+#include <functional>
+#include <optional>
 
 #include "io/session_io.h"
+#include "session_document.h"
+
+class QDockWidget;
+class QLabel;
+class QMenu;
 
 namespace barrow::ui {
 
-class FieldView;
+class FieldPanel;
+class FindingsPanel;
+class GettingStarted;
+class LiveEvaluator;
+class MeasuresPanel;
+class SessionFiles;
+class SweepPanel;
+struct LiveUpdate;
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
  public:
-  explicit MainWindow(QWidget* parent = nullptr);
-  void setSession(const Session& s);
-  const Session& session() const { return session_; }
+  struct Options {
+    bool screenshot = false;   // no first-run guide, no recovery prompt, no autosave
+    bool quiet = false;        // errors go to lastError()/status bar instead of dialogs (tests)
+    bool autoSweep = true;     // run the sweep when a session is opened
+  };
+  explicit MainWindow(QWidget* parent = nullptr) : MainWindow(Options{}, parent) {}
+  explicit MainWindow(const Options& options, QWidget* parent = nullptr);
+  ~MainWindow() override;
+
+  /// Replaces the open session (no prompt), e.g. the demo at start-up.
+  void setSession(const Session& s, const QString& path = QString());
+  const Session& session() const { return doc_->session(); }
+  SessionDocument* document() const { return doc_; }
+
+  /// Opens a session or a cloud file; returns the error text (also reported), empty on success.
+  QString openFile(const QString& path);
+  QString saveTo(const QString& path);
+  /// Handles a dropped file as the window would (asks A or B for clouds via the chooser).
+  QString dropFile(const QString& path);
+  /// Replaces the "A or B?" question for dropped clouds (tests); nullopt cancels.
+  void setDropChooser(std::function<std::optional<Which>(const QString&)> chooser) { dropChooser_ = std::move(chooser); }
+
+  /// Moves the θ cursor (nullopt releases it: the Field shows A as drawn).
+  void setTheta(std::optional<double> theta);
+  std::optional<double> theta() const { return theta_; }
+
+  /// True while any computation is pending (live measures or a sweep).
+  bool busy() const;
+  /// Calls `done` once nothing is pending any more (checked as the workers report).
+  void whenIdle(std::function<void()> done);
+  /// Request number of the newest live evaluation (for tests and benchmarks).
+  quint64 liveRequest() const;
+
+  FieldPanel* field() const { return field_; }
+  MeasuresPanel* measures() const { return measures_; }
+  SweepPanel* sweep() const { return sweep_; }
+  FindingsPanel* findings() const { return findings_; }
+  SessionFiles* files() const { return files_; }
+  const QString& lastError() const { return lastError_; }
+  void showGettingStarted();
+
+ signals:
+  void busyChanged(bool busy);
+  /// A live update was drawn (after the widgets took it).
+  void liveUpdated(const barrow::ui::LiveUpdate& u);
+
+ protected:
+  void closeEvent(QCloseEvent* e) override;
+  void showEvent(QShowEvent* e) override;
+  void dragEnterEvent(QDragEnterEvent* e) override;
+  void dropEvent(QDropEvent* e) override;
 
  private:
-  Session session_;
-  FieldView* field_;
+  void buildDocks();
+  void buildMenus();
+  void rebuildRecentMenu();
+  void scheduleLive();
+  void submitLive();
+  void onLiveUpdate(const LiveUpdate& u);
+  void checkIdle();
+  void reportError(const QString& title, const QString& text);
+  void status(const QString& text);
+  bool confirmDiscard();
+  void updateTitle();
+  void restoreLayout();
+  void applyDefaultLayout();
+  void offerRecovery();
+
+  // File menu actions.
+  void newSession();
+  void openDialog();
+  bool save();
+  bool saveAsDialog();
+  void importDialog(Which w);
+  void exportCloudDialog(Which w);
+  void exportFigureDialog(int which);  // 0 the Field, 1 the Sweep plot
+  void exportTextDialog(const QString& title, const QString& defaultName, const std::string& text);
+  std::string planCsv() const;
+
+  Options options_;
+  SessionDocument* doc_;
+  LiveEvaluator* live_;
+  SessionFiles* files_;
+  FieldPanel* field_;
+  MeasuresPanel* measures_;
+  SweepPanel* sweep_;
+  FindingsPanel* findings_;
+  GettingStarted* guide_ = nullptr;
+  QLabel* busyLabel_;
+  QMenu* recentMenu_ = nullptr;
+  QTimer liveTimer_;
+  std::optional<double> theta_;
+  QString lastError_;
+  std::function<std::optional<Which>(const QString&)> dropChooser_;
+  std::vector<std::function<void()>> idleWaiters_;
+  bool lastBusy_ = false;
+  bool layoutRestored_ = false;
+  bool defaultLayoutApplied_ = false;
 };
 
 }  // namespace barrow::ui

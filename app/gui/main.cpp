@@ -1,57 +1,78 @@
 // barrow: the desktop application.
-//   barrow                 opens the built-in demo scenario
-//   barrow FILE            opens a session (.json) or a cloud pair is not given: a cloud as A
-//   barrow --screenshot out.png [--size WxH] [FILE]   renders the window and exits
+//   barrow                  opens the built-in demo scenario
+//   barrow FILE             opens a session (.json/.barrow) or a cloud file (CSV/.npy) as A
+//   barrow --screenshot out.png [--size WxH] [FILE]
+//                           renders the window once every pending computation (live
+//                           measures and the sweep) has finished, writes the PNG and exits
 #include <QApplication>
 #include <QCommandLineParser>
-#include <QScreen>
 #include <QTimer>
 #include <cstdio>
 
-#include "io/session_io.h"
 #include "main_window.h"
+#include "session_files.h"
 #include "scenario/demo_scenario.h"
 
 int main(int argc, char** argv) {
   QApplication app(argc, argv);
   QApplication::setApplicationName("Barrow");
   QApplication::setOrganizationName("Barrow");
+  QApplication::setApplicationVersion("0.1.0");
 
   QCommandLineParser parser;
   parser.setApplicationDescription("Barrow: how distances between two 2-D distributions behave");
   parser.addHelpOption();
-  QCommandLineOption shot("screenshot", "Render the window to this PNG and exit.", "file");
+  parser.addVersionOption();
+  QCommandLineOption shot("screenshot", "Render the window to this PNG once all computations finish, then exit.",
+                          "file");
   QCommandLineOption size("size", "Window size for --screenshot, WxH.", "WxH", "1400x900");
+  QCommandLineOption timeout("timeout", "Give up on --screenshot after this many seconds.", "s", "600");
   parser.addOption(shot);
   parser.addOption(size);
-  parser.addPositionalArgument("file", "A session (.json) to open.");
+  parser.addOption(timeout);
+  parser.addPositionalArgument("file", "A session (.json) or a cloud (CSV/.npy) to open.");
   parser.process(app);
 
-  barrow::Session session = barrow::demoSession();
+  barrow::ui::MainWindow::Options options;
+  options.screenshot = parser.isSet(shot);
+  barrow::ui::MainWindow window(options);
+  window.setSession(barrow::demoSession());
   if (!parser.positionalArguments().isEmpty()) {
-    const auto path = parser.positionalArguments().first().toStdString();
-    auto loaded = barrow::readSession(path);
-    if (!loaded) {
-      std::fprintf(stderr, "barrow: %s\n", loaded.error.text().c_str());
-      return 2;
+    const QString path = parser.positionalArguments().first();
+    if (options.screenshot) {
+      // No dialogs in batch mode: a bad file is an error exit.
+      const QString e = window.files()->openSession(path);
+      if (!e.isEmpty()) {
+        std::fprintf(stderr, "barrow: %s\n", e.toLocal8Bit().constData());
+        return 2;
+      }
+      if (barrow::ui::SessionFiles::isSessionFile(path)) window.setSession(window.session(), path);
+    } else {
+      window.openFile(path);
     }
-    session = *loaded.value;
   }
 
-  barrow::ui::MainWindow window;
-  window.setSession(session);
   const auto wh = parser.value(size).split('x');
-  if (wh.size() == 2) window.resize(wh[0].toInt(), wh[1].toInt());
-  else window.resize(1400, 900);
+  const int w = wh.size() == 2 ? wh[0].toInt() : 0, h = wh.size() == 2 ? wh[1].toInt() : 0;
+  if (options.screenshot || (w > 0 && h > 0 && parser.isSet(size)))
+    window.resize(w > 0 ? w : 1400, h > 0 ? h : 900);
   window.show();
 
-  if (parser.isSet(shot)) {
+  if (options.screenshot) {
     const QString out = parser.value(shot);
-    QTimer::singleShot(300, [&] {
-      const bool ok = window.grab().save(out, "PNG");
-      std::fprintf(ok ? stdout : stderr, ok ? "wrote %s\n" : "barrow: cannot write %s\n",
-                   out.toLocal8Bit().constData());
-      QApplication::exit(ok ? 0 : 1);
+    auto render = [&] {
+      // Let queued replots run before grabbing.
+      QTimer::singleShot(50, &window, [&] {
+        const bool ok = window.grab().save(out, "PNG");
+        std::fprintf(ok ? stdout : stderr, ok ? "wrote %s\n" : "barrow: cannot write %s\n",
+                     out.toLocal8Bit().constData());
+        QApplication::exit(ok ? 0 : 1);
+      });
+    };
+    QTimer::singleShot(0, &window, [&] { window.whenIdle(render); });
+    QTimer::singleShot(int(parser.value(timeout).toDouble() * 1000), &window, [&] {
+      std::fprintf(stderr, "barrow: computations did not finish within %s s\n", parser.value(timeout).toLocal8Bit().constData());
+      QApplication::exit(3);
     });
   }
   return app.exec();

@@ -1,0 +1,140 @@
+#include "cloud_layer.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace barrow::ui {
+
+CloudLayer::CloudLayer(QCPAxis* keyAxis, QCPAxis* valueAxis)
+    : QCPAbstractPlottable(keyAxis, valueAxis) {
+  setSelectable(QCP::stNone);
+  setAntialiased(true);
+}
+
+void CloudLayer::setData(const Eigen::MatrixX2d& points, const Eigen::VectorXd& weights) {
+  points_ = points;
+  const double total = weights.size() ? weights.sum() : 0.0;
+  share_ = total > 0 ? Eigen::VectorXd(weights * (double(weights.size()) / total))
+                     : Eigen::VectorXd::Ones(points.rows());
+  if (Eigen::Index(selected_.size()) != points.rows()) selected_.assign(std::size_t(points.rows()), false);
+  if (highlighted_ >= points.rows()) highlighted_ = -1;
+}
+
+void CloudLayer::setStyle(const QColor& color, MarkerShape shape, double baseSize) {
+  color_ = color;
+  shape_ = shape;
+  baseSize_ = baseSize;
+}
+
+void CloudLayer::setSelectedPoints(const std::vector<bool>& selected) { selected_ = selected; }
+void CloudLayer::setHighlighted(int index) { highlighted_ = index; }
+void CloudLayer::setHollow(bool hollow) { hollow_ = hollow; }
+
+double CloudLayer::markerSize(Eigen::Index i) const {
+  // Area proportional to the share of mass: diameter ∝ sqrt(share). Clamped so that a
+  // zero-weight point stays visible and a heavy one does not hide the rest.
+  const double s = share_.size() > i ? share_(i) : 1.0;
+  return std::clamp(baseSize_ * std::sqrt(std::max(s, 0.0)), 3.0, 5.0 * baseSize_);
+}
+
+int CloudLayer::pointAt(const QPointF& pos, double radiusPx) const {
+  int best = -1;
+  double bestD = radiusPx * radiusPx;
+  for (Eigen::Index i = 0; i < points_.rows(); ++i) {
+    const QPointF p = coordsToPixels(points_(i, 0), points_(i, 1));
+    const double dx = p.x() - pos.x(), dy = p.y() - pos.y();
+    const double d = dx * dx + dy * dy;
+    if (d <= bestD) {
+      bestD = d;
+      best = int(i);
+    }
+  }
+  return best;
+}
+
+double CloudLayer::selectTest(const QPointF& pos, bool onlySelectable, QVariant*) const {
+  if (onlySelectable) return -1;
+  const int i = pointAt(pos, 10);
+  if (i < 0) return -1;
+  const QPointF p = coordsToPixels(points_(i, 0), points_(i, 1));
+  return std::hypot(p.x() - pos.x(), p.y() - pos.y());
+}
+
+QCPRange CloudLayer::getKeyRange(bool& foundRange, QCP::SignDomain) const {
+  foundRange = points_.rows() > 0;
+  if (!foundRange) return {};
+  return QCPRange(points_.col(0).minCoeff(), points_.col(0).maxCoeff());
+}
+
+QCPRange CloudLayer::getValueRange(bool& foundRange, QCP::SignDomain, const QCPRange&) const {
+  foundRange = points_.rows() > 0;
+  if (!foundRange) return {};
+  return QCPRange(points_.col(1).minCoeff(), points_.col(1).maxCoeff());
+}
+
+void CloudLayer::drawMarker(QCPPainter* painter, const QPointF& c, double size) const {
+  const double r = size / 2;
+  switch (shape_) {
+    case MarkerShape::Disc:
+      painter->drawEllipse(c, r, r);
+      break;
+    case MarkerShape::Square:
+      painter->drawRect(QRectF(c.x() - r * 0.9, c.y() - r * 0.9, 1.8 * r, 1.8 * r));
+      break;
+    case MarkerShape::Triangle: {
+      const double h = r * 1.15;
+      const QPointF tri[3] = {{c.x(), c.y() - h}, {c.x() + h * 0.92, c.y() + h * 0.6},
+                              {c.x() - h * 0.92, c.y() + h * 0.6}};
+      painter->drawPolygon(tri, 3);
+      break;
+    }
+    case MarkerShape::Diamond: {
+      const double h = r * 1.2;
+      const QPointF dia[4] = {{c.x(), c.y() - h}, {c.x() + h, c.y()}, {c.x(), c.y() + h}, {c.x() - h, c.y()}};
+      painter->drawPolygon(dia, 4);
+      break;
+    }
+  }
+}
+
+void CloudLayer::draw(QCPPainter* painter) {
+  if (points_.rows() == 0) return;
+  applyDefaultAntialiasingHint(painter);
+  const QRectF clip = clipRect().adjusted(-20, -20, 20, 20);
+  QColor fill = color_;
+  fill.setAlphaF(hollow_ ? 0.0 : 0.78);
+  const QPen outline(hollow_ ? color_ : color_.darker(135), hollow_ ? 1.2 : 0.8);
+  painter->setPen(outline);
+  painter->setBrush(hollow_ ? Qt::NoBrush : QBrush(fill));
+  for (Eigen::Index i = 0; i < points_.rows(); ++i) {
+    const QPointF p = coordsToPixels(points_(i, 0), points_(i, 1));
+    if (!clip.contains(p)) continue;
+    drawMarker(painter, p, markerSize(i));
+  }
+  // Selection and hover rings on top, so they are never hidden under other markers.
+  painter->setBrush(Qt::NoBrush);
+  painter->setPen(QPen(QColor(0, 0, 0), 1.6));
+  for (Eigen::Index i = 0; i < points_.rows(); ++i) {
+    if (!selected_[std::size_t(i)]) continue;
+    const QPointF p = coordsToPixels(points_(i, 0), points_(i, 1));
+    const double r = markerSize(i) / 2 + 3;
+    painter->drawEllipse(p, r, r);
+  }
+  if (highlighted_ >= 0 && highlighted_ < points_.rows()) {
+    const QPointF p = coordsToPixels(points_(highlighted_, 0), points_(highlighted_, 1));
+    painter->setPen(QPen(QColor(0, 0, 0), 2.2));
+    const double r = markerSize(highlighted_) / 2 + 5;
+    painter->drawEllipse(p, r, r);
+  }
+}
+
+void CloudLayer::drawLegendIcon(QCPPainter* painter, const QRectF& rect) const {
+  applyDefaultAntialiasingHint(painter);
+  QColor fill = color_;
+  fill.setAlphaF(hollow_ ? 0.0 : 0.78);
+  painter->setPen(QPen(hollow_ ? color_ : color_.darker(135), hollow_ ? 1.2 : 0.8));
+  painter->setBrush(hollow_ ? Qt::NoBrush : QBrush(fill));
+  drawMarker(painter, rect.center(), std::min(rect.height(), baseSize_ * 1.4));
+}
+
+}  // namespace barrow::ui

@@ -1,0 +1,91 @@
+#include "findings_panel.h"
+
+#include <QHeaderView>
+#include <QTableWidget>
+#include <QVBoxLayout>
+
+#include "measure_style.h"
+#include "measures/registry.h"
+
+namespace barrow::ui {
+
+FindingsPanel::FindingsPanel(QWidget* parent) : QWidget(parent), table_(new QTableWidget(this)) {
+  auto* layout = new QVBoxLayout(this);
+  layout->setContentsMargins(2, 2, 2, 2);
+  layout->addWidget(table_);
+  table_->setObjectName("findingsTable");
+  table_->setColumnCount(3);
+  table_->setHorizontalHeaderLabels({tr("Measure"), tr("Verdict"), tr("In words")});
+  table_->horizontalHeaderItem(0)->setToolTip(tr("Click a row to highlight the measure on the plots and in the table"));
+  table_->horizontalHeaderItem(1)->setToolTip(tr("continuous, or the number of jumps found (confirmed by refinement); "
+                                                 "flat: stretches with no gradient"));
+  table_->horizontalHeaderItem(2)->setToolTip(tr("The finding in plain words, with the Lipschitz estimate"));
+  table_->verticalHeader()->setVisible(false);
+  table_->setSelectionBehavior(QAbstractItemView::SelectRows);
+  table_->setSelectionMode(QAbstractItemView::SingleSelection);
+  table_->setEditTriggers(QAbstractItemView::NoEditTriggers);
+  table_->setWordWrap(true);
+  table_->horizontalHeader()->setSectionResizeMode(0, QHeaderView::ResizeToContents);
+  table_->horizontalHeader()->setSectionResizeMode(1, QHeaderView::ResizeToContents);
+  table_->horizontalHeader()->setMinimumSectionSize(40);
+  table_->horizontalHeader()->setSectionResizeMode(2, QHeaderView::Stretch);
+  connect(table_, &QTableWidget::itemSelectionChanged, this, [this] {
+    const auto rows = table_->selectionModel()->selectedRows();
+    if (rows.isEmpty()) {
+      emit measureFocused(QString());
+      return;
+    }
+    emit measureFocused(table_->item(rows.first().row(), 0)->data(Qt::UserRole).toString());
+  });
+  clear(tr("Findings appear here after a sweep."));
+}
+
+void FindingsPanel::clear(const QString& hint) {
+  table_->clearContents();
+  table_->setRowCount(hint.isEmpty() ? 0 : 1);
+  if (!hint.isEmpty()) {
+    auto* item = new QTableWidgetItem(hint);
+    item->setFlags(Qt::ItemIsEnabled);
+    table_->setItem(0, 2, item);
+  }
+}
+
+void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
+  const QSignalBlocker block(table_);
+  table_->clearContents();
+  table_->setRowCount(int(findings.size()));
+  for (int r = 0; r < int(findings.size()); ++r) {
+    const Finding& f = findings[std::size_t(r)];
+    const Measure* m = MeasureRegistry::instance().find(f.id);
+    auto* name = new QTableWidgetItem(QString::fromStdString(f.id));
+    name->setData(Qt::UserRole, QString::fromStdString(f.id));
+    name->setIcon(measureIcon(f.id));
+    if (m) name->setToolTip(QString::fromStdString(m->displayName()));
+    QString verdict = f.continuous ? tr("continuous") : tr("%n jump(s)", "", int(f.jumps.size()));
+    if (!f.flat.empty()) verdict += tr(", flat");
+    if (!f.monotone) verdict += tr(", not monotone");
+    auto* v = new QTableWidgetItem(verdict);
+    v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
+    v->setToolTip(tr("Lipschitz estimate %1").arg(f.lipschitz, 0, 'g', 3));
+    auto* words = new QTableWidgetItem(QString::fromStdString(f.summary));
+    words->setToolTip(QString::fromStdString(f.summary));
+    table_->setItem(r, 0, name);
+    table_->setItem(r, 1, v);
+    table_->setItem(r, 2, words);
+  }
+  table_->resizeRowsToContents();
+}
+
+void FindingsPanel::selectMeasure(const std::string& id) {
+  const QSignalBlocker block(table_);
+  for (int r = 0; r < table_->rowCount(); ++r) {
+    QTableWidgetItem* it = table_->item(r, 0);
+    if (it && it->data(Qt::UserRole).toString().toStdString() == id) {
+      table_->selectRow(r);
+      return;
+    }
+  }
+  table_->clearSelection();
+}
+
+}  // namespace barrow::ui

@@ -1,0 +1,62 @@
+#include "getting_started.h"
+
+#include <QEvent>
+#include <QLabel>
+#include <QPushButton>
+#include <QVBoxLayout>
+
+namespace barrow::ui {
+
+GettingStarted::GettingStarted(QWidget* parent) : QFrame(parent) {
+  setObjectName("gettingStarted");
+  setFrameShape(QFrame::StyledPanel);
+  setAutoFillBackground(true);
+  setStyleSheet("#gettingStarted { background: rgba(255,255,255,245); border: 2px solid #0072B2; border-radius: 6px; }");
+  auto* text = new QLabel(this);
+  text->setWordWrap(true);
+  text->setTextFormat(Qt::RichText);
+  text->setText(tr(
+      "<h3>Getting started</h3>"
+      "<p>The demo holds two batches of readings from a line-scan sensor: <b>A</b> (blue discs) "
+      "before and <b>B</b> (orange triangles) after the mount slipped sideways. Their supports "
+      "barely overlap — exactly where losses disagree.</p>"
+      "<ol>"
+      "<li><b>Drag points</b> on the Field (Select tool) and watch every measure update in the "
+      "Measures table. The black segments are the exact transport plan.</li>"
+      "<li><b>Drag the orange θ cursor</b> on the Sweep plots: A slides along the shift and "
+      "the Field follows. Flat curves give no gradient; jumps mean a loss that cannot guide "
+      "training.</li>"
+      "<li><b>Read the Findings</b>: one plain verdict per measure. Click one to highlight it.</li>"
+      "</ol>"
+      "<p>Everything is undoable (Ctrl+Z). Save with Ctrl+S; figures and tables export from the "
+      "File menu.</p>"));
+  auto* ok = new QPushButton(tr("Got it"), this);
+  ok->setToolTip(tr("Close this guide; it is in the Help menu if you want it again"));
+  ok->setDefault(true);
+  auto* layout = new QVBoxLayout(this);
+  layout->setContentsMargins(16, 10, 16, 12);
+  layout->addWidget(text);
+  layout->addWidget(ok, 0, Qt::AlignRight);
+  connect(ok, &QPushButton::clicked, this, [this] {
+    hide();
+    emit dismissed();
+  });
+  parent->installEventFilter(this);
+  place();
+}
+
+void GettingStarted::place() {
+  const QSize s(std::min(520, parentWidget()->width() - 40), 0);
+  resize(s.width(), heightForWidth(s.width()) > 0 ? heightForWidth(s.width()) : sizeHint().height());
+  adjustSize();
+  resize(std::min(520, parentWidget()->width() - 40), height());
+  move((parentWidget()->width() - width()) / 2, (parentWidget()->height() - height()) / 3);
+  raise();
+}
+
+bool GettingStarted::eventFilter(QObject* watched, QEvent* event) {
+  if (watched == parentWidget() && event->type() == QEvent::Resize) place();
+  return QFrame::eventFilter(watched, event);
+}
+
+}  // namespace barrow::ui

@@ -1,0 +1,255 @@
+#include "measures_panel.h"
+
+#include <QHeaderView>
+#include <algorithm>
+#include <QTextBrowser>
+#include <QTreeWidget>
+#include <QVBoxLayout>
+#include <cmath>
+#include <sstream>
+
+#include "measure_style.h"
+#include "param_editor.h"
+#include "result_text.h"
+
+namespace barrow::ui {
+
+namespace {
+
+enum Column { kName = 0, kValue, kChange, kStatus, kTime, kColumns };
+constexpr int kIdRole = Qt::UserRole + 1;
+constexpr int kKeyRole = Qt::UserRole + 2;
+
+}  // namespace
+
+MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> measures, QWidget* parent)
+    : QWidget(parent), doc_(doc), measures_(std::move(measures)), tree_(new QTreeWidget(this)),
+      details_(new QTextBrowser(this)) {
+  auto* layout = new QVBoxLayout(this);
+  layout->setContentsMargins(2, 2, 2, 2);
+  layout->addWidget(tree_, 3);
+  layout->addWidget(details_, 1);
+  tree_->setObjectName("measuresTable");
+  tree_->setColumnCount(kColumns);
+  tree_->setHeaderLabels({tr("Measure"), tr("Value"), tr("Δ from θ₀"), tr("Status"), tr("Time")});
+  tree_->headerItem()->setToolTip(kName, tr("Tick a measure to put it on the Sweep plots; unfold it to edit its parameters"));
+  tree_->headerItem()->setToolTip(kValue, tr("D(A, B) as defined in the design notes, for the clouds on the Field"));
+  tree_->headerItem()->setToolTip(kChange, tr("Value minus the value with A at the reference θ₀ of the sweep"));
+  tree_->headerItem()->setToolTip(kStatus, tr("ok, infinite, not converged (with the marginal error) or invalid (with the reason)"));
+  tree_->headerItem()->setToolTip(kTime, tr("Wall time of the last evaluation"));
+  tree_->setAlternatingRowColors(true);
+  tree_->setUniformRowHeights(true);
+  tree_->setRootIsDecorated(true);
+  tree_->setEditTriggers(QAbstractItemView::DoubleClicked | QAbstractItemView::SelectedClicked |
+                         QAbstractItemView::EditKeyPressed);
+  tree_->header()->setStretchLastSection(false);
+  tree_->header()->setSectionResizeMode(kName, QHeaderView::Stretch);
+  for (int c = kValue; c < kColumns; ++c) tree_->header()->setSectionResizeMode(c, QHeaderView::ResizeToContents);
+  details_->setObjectName("measureDetails");
+  details_->setOpenLinks(false);
+  details_->setToolTip(tr("Formula of the selected measure and the settings it used"));
+
+  auto* delegate = new ParamDelegate(
+      [this](const QModelIndex& index) -> std::optional<ParamSpec> {
+        if (index.column() != kValue) return std::nullopt;
+        const QString key = index.data(kKeyRole).toString();
+        if (key.isEmpty()) return std::nullopt;
+        for (const Measure* m : measures_)
+          for (const auto& p : m->params())
+            if (p.key == key.toStdString()) return p;
+        return std::nullopt;
+      },
+      this);
+  tree_->setItemDelegateForColumn(kValue, delegate);
+  connect(delegate, &ParamDelegate::committed, this,
+          [this](const QString& key, const QString& value, const QString& error) {
+            if (!error.isEmpty()) {
+              emit message(tr("Not changed: %1").arg(error));
+              return;
+            }
+            doc_->setParam(key.toStdString(), value.toStdString());
+          });
+  connect(tree_, &QTreeWidget::currentItemChanged, this, [this](QTreeWidgetItem* item) {
+    if (!item) return;
+    const std::string id = item->data(kName, kIdRole).toString().toStdString();
+    showDetails(id);
+    emit measureFocused(QString::fromStdString(id));
+  });
+  connect(tree_, &QTreeWidget::itemChanged, this, [this](QTreeWidgetItem* item, int column) {
+    if (updatingUi_ || column != kName || item->parent()) return;
+    std::vector<std::string> ids;
+    for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+      QTreeWidgetItem* it = tree_->topLevelItem(r);
+      if (it->checkState(kName) == Qt::Checked) ids.push_back(it->data(kName, kIdRole).toString().toStdString());
+    }
+    if (ids.empty()) {
+      emit message(tr("At least one measure stays on the Sweep plots."));
+      refreshSelection();
+      return;
+    }
+    if (ids.size() == measures_.size()) ids.clear();  // the session's way of saying "all"
+    doc_->setSelected(ids);
+  });
+  connect(doc_, &SessionDocument::paramsChanged, this, &MeasuresPanel::refreshParams);
+  connect(doc_, &SessionDocument::selectionChanged, this, &MeasuresPanel::refreshSelection);
+  build();
+}
+
+void MeasuresPanel::build() {
+  updatingUi_ = true;
+  tree_->clear();
+  if (measures_.empty()) {
+    auto* item = new QTreeWidgetItem(tree_);
+    item->setText(kName, tr("No measures are registered in this build yet."));
+    item->setFlags(Qt::ItemIsEnabled);
+  }
+  for (const Measure* m : measures_) {
+    auto* item = new QTreeWidgetItem(tree_);
+    const QString id = QString::fromStdString(m->id());
+    item->setText(kName, QString::fromStdString(m->displayName()) + "  [" + id + "]");
+    item->setData(kName, kIdRole, id);
+    item->setIcon(kName, measureIcon(m->id()));
+    item->setToolTip(kName, QString::fromStdString(m->formula()));
+    item->setFlags(Qt::ItemIsEnabled | Qt::ItemIsSelectable | Qt::ItemIsUserCheckable);
+    item->setCheckState(kName, Qt::Checked);
+    item->setTextAlignment(kValue, Qt::AlignRight | Qt::AlignVCenter);
+    item->setTextAlignment(kChange, Qt::AlignRight | Qt::AlignVCenter);
+    item->setTextAlignment(kTime, Qt::AlignRight | Qt::AlignVCenter);
+    item->setText(kStatus, m->cheap() ? tr("waiting") : tr("waiting (slow)"));
+    for (const auto& p : m->params()) {
+      auto* child = new QTreeWidgetItem(item);
+      const QString key = QString::fromStdString(p.key);
+      child->setText(kName, key + (p.unit.empty() ? QString() : "  (" + QString::fromStdString(p.unit) + ")"));
+      child->setData(kName, kIdRole, id);
+      child->setData(kValue, kKeyRole, key);
+      child->setText(kStatus, describeRange(p));
+      const QString tip = QString::fromStdString(p.help) + "\n" + tr("Valid: %1").arg(describeRange(p)) +
+                          "\n" + tr("Default: %1").arg(QString::fromStdString(p.defaultValue)) +
+                          "\n" + tr("Double-click the value to change it.");
+      for (int c = 0; c < kColumns; ++c) child->setToolTip(c, tip);
+      child->setFlags(Qt::ItemIsEnabled | Qt::ItemIsSelectable | Qt::ItemIsEditable);
+    }
+  }
+  updatingUi_ = false;
+  refreshParams();
+  refreshSelection();
+  if (tree_->topLevelItemCount() > 0) tree_->setCurrentItem(tree_->topLevelItem(0));
+}
+
+QTreeWidgetItem* MeasuresPanel::rowOf(const std::string& id) const {
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    if (it->data(kName, kIdRole).toString().toStdString() == id) return it;
+  }
+  return nullptr;
+}
+
+void MeasuresPanel::refreshParams() {
+  updatingUi_ = true;
+  const auto& user = doc_->session().params;
+  for (const Measure* m : measures_) {
+    QTreeWidgetItem* row = rowOf(m->id());
+    if (!row) continue;
+    const auto specs = m->params();
+    for (int c = 0; c < row->childCount(); ++c) {
+      QTreeWidgetItem* child = row->child(c);
+      const std::string key = child->data(kValue, kKeyRole).toString().toStdString();
+      for (const auto& p : specs) {
+        if (p.key != key) continue;
+        const bool set = user.has(key);
+        child->setText(kValue, QString::fromStdString(set ? user.text(key) : p.defaultValue));
+        QFont f = child->font(kValue);
+        f.setItalic(!set);  // italic: the default, not a user setting
+        child->setFont(kValue, f);
+      }
+    }
+  }
+  updatingUi_ = false;
+}
+
+void MeasuresPanel::refreshSelection() {
+  updatingUi_ = true;
+  const auto& sel = doc_->session().selected;
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    if (!(it->flags() & Qt::ItemIsUserCheckable)) continue;
+    const std::string id = it->data(kName, kIdRole).toString().toStdString();
+    const bool on = sel.empty() || std::find(sel.begin(), sel.end(), id) != sel.end();
+    it->setCheckState(kName, on ? Qt::Checked : Qt::Unchecked);
+  }
+  updatingUi_ = false;
+}
+
+void MeasuresPanel::markUpdating() {
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    if (it->data(kName, kIdRole).toString().isEmpty()) continue;
+    for (int c = kValue; c < kColumns; ++c) it->setForeground(c, QColor(120, 120, 120));
+  }
+}
+
+void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
+  for (const auto& item : u.items) {
+    results_[item.id] = item.result;
+    references_[item.id] = item.reference;
+    QTreeWidgetItem* row = rowOf(item.id);
+    if (!row) continue;
+    const Result& r = item.result;
+    row->setText(kValue, valueText(r));
+    row->setText(kChange, item.reference ? changeText(r, *item.reference) : QString("—"));
+    row->setText(kStatus, statusText(r));
+    row->setToolTip(kStatus, statusTooltip(r));
+    row->setText(kTime, secondsText(r.seconds));
+    for (int c = kValue; c < kColumns; ++c) row->setForeground(c, QBrush());
+    if (r.status == Status::InvalidInput || r.status == Status::NotConverged)
+      row->setForeground(kStatus, QColor(213, 94, 0));
+  }
+  for (const auto& id : u.pending)
+    if (QTreeWidgetItem* row = rowOf(id)) row->setText(kStatus, tr("updating…"));
+  if (QTreeWidgetItem* cur = tree_->currentItem())
+    showDetails(cur->data(kName, kIdRole).toString().toStdString());
+}
+
+const Result* MeasuresPanel::result(const std::string& id) const {
+  auto it = results_.find(id);
+  return it == results_.end() ? nullptr : &it->second;
+}
+
+QString MeasuresPanel::cellText(const std::string& id, int column) const {
+  const QTreeWidgetItem* row = rowOf(id);
+  return row ? row->text(column) : QString();
+}
+
+void MeasuresPanel::focusMeasure(const std::string& id) {
+  if (QTreeWidgetItem* row = rowOf(id)) tree_->setCurrentItem(row);
+}
+
+void MeasuresPanel::showDetails(const std::string& id) {
+  const Measure* m = nullptr;
+  for (const Measure* x : measures_)
+    if (x->id() == id) m = x;
+  if (!m) {
+    details_->clear();
+    return;
+  }
+  auto it = results_.find(id);
+  details_->setHtml(detailsHtml(*m, it == results_.end() ? nullptr : &it->second));
+}
+
+std::string MeasuresPanel::toCsv() const {
+  std::ostringstream o;
+  o << "id,name,value,change,status,seconds\n";
+  for (const Measure* m : measures_) {
+    auto it = results_.find(m->id());
+    if (it == results_.end()) continue;
+    const Result& r = it->second;
+    const auto ref = references_.find(m->id());
+    o << m->id() << ",\"" << m->displayName() << "\"," << csvNumber(r) << ',';
+    if (ref != references_.end() && ref->second && r.usable() && ref->second->usable())
+      o << csvDifference(r.value, ref->second->value);
+    o << ',' << statusName(r.status) << ',' << r.seconds << '\n';
+  }
+  return o.str();
+}
+
+}  // namespace barrow::ui

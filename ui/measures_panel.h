@@ -1,0 +1,61 @@
+// The Measures table: one row per registered measure with its value, the change from the
+// reference θ, its status (with the reason), compute time, and a check box that puts it on
+// the Sweep plots. Each row unfolds into its parameters, editable in place with units and
+// valid ranges from the measure's ParamSpec. Below, the selected measure's formula and the
+// settings it actually used.
+#pragma once
+
+#include <QWidget>
+#include <map>
+#include <optional>
+#include <vector>
+
+#include "live_evaluator.h"
+#include "session_document.h"
+
+class QTreeWidget;
+class QTreeWidgetItem;
+class QTextBrowser;
+class QLabel;
+
+namespace barrow::ui {
+
+class MeasuresPanel : public QWidget {
+  Q_OBJECT
+ public:
+  MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> measures, QWidget* parent = nullptr);
+
+  /// A new request went out: keep the old numbers but mark every row as updating.
+  void markUpdating();
+  void applyUpdate(const LiveUpdate& u);
+
+  /// Cell texts, for tests and the CSV export: column 0..4 of a measure's row.
+  QString cellText(const std::string& id, int column) const;
+  /// The latest result of a measure for the current request, if it arrived.
+  const Result* result(const std::string& id) const;
+  /// Table as CSV (id, name, value, change, status, seconds).
+  std::string toCsv() const;
+  QTreeWidget* tree() const { return tree_; }
+  void focusMeasure(const std::string& id);
+
+ signals:
+  void measureFocused(const QString& id);
+  void message(const QString& text);
+
+ private:
+  void build();
+  void refreshParams();
+  void refreshSelection();
+  void showDetails(const std::string& id);
+  QTreeWidgetItem* rowOf(const std::string& id) const;
+
+  SessionDocument* doc_;
+  std::vector<const Measure*> measures_;
+  QTreeWidget* tree_;
+  QTextBrowser* details_;
+  std::map<std::string, Result> results_;
+  std::map<std::string, std::optional<Result>> references_;
+  bool updatingUi_ = false;
+};
+
+}  // namespace barrow::ui

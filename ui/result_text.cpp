@@ -1,0 +1,119 @@
+#include "result_text.h"
+
+#include <QObject>
+#include <cmath>
+#include <optional>
+#include <sstream>
+
+namespace barrow::ui {
+
+namespace {
+
+QString num(double v) { return QString::number(v, 'g', 5); }
+
+// The marginal error, if the measure reported one (entropic solvers do).
+std::optional<double> marginalError(const Result& r) {
+  for (const char* key : {"marginal_error", "marginalError"}) {
+    if (r.details.contains(key) && r.details[key].is_number()) return r.details[key].get<double>();
+  }
+  return std::nullopt;
+}
+
+}  // namespace
+
+QString valueText(const Result& r) {
+  if (!r.usable()) return QStringLiteral("—");
+  if (std::isinf(r.value)) return r.value > 0 ? QStringLiteral("∞") : QStringLiteral("−∞");
+  if (std::isnan(r.value)) return QStringLiteral("—");
+  return num(r.value);
+}
+
+QString changeText(const Result& now, const Result& ref) {
+  if (!now.usable() || !ref.usable() || std::isnan(now.value) || std::isnan(ref.value)) return QStringLiteral("—");
+  if (std::isinf(now.value) || std::isinf(ref.value)) {
+    if (std::isinf(now.value) && std::isinf(ref.value)) return QStringLiteral("0");
+    return std::isinf(now.value) ? QStringLiteral("+∞") : QStringLiteral("−∞");
+  }
+  const double d = now.value - ref.value;
+  if (d == 0) return QStringLiteral("0");
+  return (d > 0 ? "+" : "") + num(d);
+}
+
+QString statusText(const Result& r) {
+  switch (r.status) {
+    case Status::Ok:
+      return QObject::tr("ok");
+    case Status::Infinite:
+      return QObject::tr("infinite");
+    case Status::NotConverged: {
+      const auto e = marginalError(r);
+      return e ? QObject::tr("not converged (marginal error %1)").arg(*e, 0, 'g', 2)
+               : QObject::tr("not converged");
+    }
+    case Status::InvalidInput:
+      return QObject::tr("invalid: %1").arg(QString::fromStdString(r.message));
+    case Status::Cancelled:
+      return QObject::tr("cancelled");
+  }
+  return {};
+}
+
+QString statusTooltip(const Result& r) {
+  QString t = QString::fromLatin1(statusName(r.status));
+  if (!r.message.empty()) t += ": " + QString::fromStdString(r.message);
+  if (r.iterations > 0) t += "\n" + QObject::tr("%n iteration(s)", "", r.iterations);
+  return t;
+}
+
+QString secondsText(double s) {
+  if (!(s >= 0)) return {};
+  if (s < 1e-3) return QObject::tr("%1 µs").arg(s * 1e6, 0, 'f', 0);
+  if (s < 1) return QObject::tr("%1 ms").arg(s * 1e3, 0, 'f', s < 0.01 ? 2 : 1);
+  return QObject::tr("%1 s").arg(s, 0, 'f', 2);
+}
+
+QString detailsHtml(const Measure& m, const Result* r) {
+  QString h = "<b>" + QString::fromStdString(m.displayName()).toHtmlEscaped() + "</b> <tt>[" +
+              QString::fromStdString(m.id()) + "]</tt><br><tt>" +
+              QString::fromStdString(m.formula()).toHtmlEscaped() + "</tt>";
+  if (!m.cheap()) h += "<br><i>" + QObject::tr("Slow: updates after the cheap measures.") + "</i>";
+  if (!r) return h;
+  h += "<br>" + QObject::tr("Status: %1").arg(statusText(*r).toHtmlEscaped());
+  if (!r->message.empty() && r->status != Status::InvalidInput)
+    h += "<br>" + QString::fromStdString(r->message).toHtmlEscaped();
+  if (r->iterations > 0) h += "<br>" + QObject::tr("%n iteration(s)", "", r->iterations);
+  if (r->details.is_object() && !r->details.empty()) {
+    h += "<br>" + QObject::tr("Settings used:") + " <tt>";
+    bool first = true;
+    for (const auto& [k, v] : r->details.items()) {
+      h += (first ? "" : ", ") + QString::fromStdString(k).toHtmlEscaped() + " = " +
+           QString::fromStdString(v.is_string() ? v.get<std::string>() : v.dump()).toHtmlEscaped();
+      first = false;
+    }
+    h += "</tt>";
+  }
+  return h;
+}
+
+std::string csvNumber(const Result& r) {
+  if (!r.usable() || std::isnan(r.value)) return "";
+  if (std::isinf(r.value)) return r.value > 0 ? "inf" : "-inf";
+  std::ostringstream o;
+  o.precision(17);
+  o << r.value;
+  return o.str();
+}
+
+std::string csvDifference(double now, double ref) {
+  if (std::isnan(now) || std::isnan(ref)) return "";
+  if (std::isinf(now) || std::isinf(ref)) {
+    if (std::isinf(now) && std::isinf(ref)) return "0";
+    return std::isinf(now) ? "inf" : "-inf";
+  }
+  std::ostringstream o;
+  o.precision(17);
+  o << now - ref;
+  return o.str();
+}
+
+}  // namespace barrow::ui

@@ -1,0 +1,120 @@
+#include "segment_layer.h"
+
+#include <algorithm>
+
+namespace barrow::ui {
+
+SegmentLayer::SegmentLayer(QCPAxis* keyAxis, QCPAxis* valueAxis)
+    : QCPAbstractPlottable(keyAxis, valueAxis) {
+  setSelectable(QCP::stNone);
+  setAntialiased(true);
+}
+
+void SegmentLayer::setPlan(const std::vector<PlanEntry>& plan, const Eigen::MatrixX2d& a,
+                           const Eigen::MatrixX2d& b, std::size_t maxSegments) {
+  entries_.clear();
+  entries_.reserve(plan.size());
+  for (const auto& e : plan)
+    if (e.i >= 0 && e.i < a.rows() && e.j >= 0 && e.j < b.rows() && e.mass > 0) entries_.push_back(e);
+  if (entries_.size() > maxSegments) {
+    std::nth_element(entries_.begin(), entries_.begin() + std::ptrdiff_t(maxSegments), entries_.end(),
+                     [](const PlanEntry& x, const PlanEntry& y) { return x.mass > y.mass; });
+    entries_.resize(maxSegments);
+  }
+  // Light segments first, so heavy ones are painted on top.
+  std::sort(entries_.begin(), entries_.end(),
+            [](const PlanEntry& x, const PlanEntry& y) { return x.mass < y.mass; });
+  seg_.resize(entries_.size());
+  mass_.resize(entries_.size());
+  maxMass_ = 0;
+  for (std::size_t k = 0; k < entries_.size(); ++k) {
+    const auto& e = entries_[k];
+    seg_[k] = {a(e.i, 0), a(e.i, 1), b(e.j, 0), b(e.j, 1)};
+    mass_[k] = e.mass;
+    maxMass_ = std::max(maxMass_, e.mass);
+  }
+}
+
+void SegmentLayer::clearPlan() {
+  entries_.clear();
+  seg_.clear();
+  mass_.clear();
+  maxMass_ = 0;
+}
+
+void SegmentLayer::setHighlight(bool fromA, int index) {
+  hiFromA_ = fromA;
+  hiIndex_ = index;
+}
+
+std::size_t SegmentLayer::visibleCount() const {
+  const double cut = threshold_ * maxMass_;
+  return std::size_t(std::count_if(mass_.begin(), mass_.end(), [cut](double m) { return m >= cut; }));
+}
+
+std::vector<PlanEntry> SegmentLayer::entriesOf(bool fromA, int index) const {
+  std::vector<PlanEntry> out;
+  for (const auto& e : entries_)
+    if ((fromA ? e.i : e.j) == index) out.push_back(e);
+  std::sort(out.begin(), out.end(), [](const PlanEntry& x, const PlanEntry& y) { return x.mass > y.mass; });
+  return out;
+}
+
+QCPRange SegmentLayer::getKeyRange(bool& foundRange, QCP::SignDomain) const {
+  foundRange = !seg_.empty();
+  if (!foundRange) return {};
+  QCPRange r(seg_[0][0], seg_[0][0]);
+  for (const auto& s : seg_) {
+    r.expand(s[0]);
+    r.expand(s[2]);
+  }
+  return r;
+}
+
+QCPRange SegmentLayer::getValueRange(bool& foundRange, QCP::SignDomain, const QCPRange&) const {
+  foundRange = !seg_.empty();
+  if (!foundRange) return {};
+  QCPRange r(seg_[0][1], seg_[0][1]);
+  for (const auto& s : seg_) {
+    r.expand(s[1]);
+    r.expand(s[3]);
+  }
+  return r;
+}
+
+void SegmentLayer::draw(QCPPainter* painter) {
+  if (seg_.empty() || maxMass_ <= 0) return;
+  applyDefaultAntialiasingHint(painter);
+  const double cut = threshold_ * maxMass_;
+  const bool anyHighlight = hiIndex_ >= 0;
+  QPen pen(color_, 1.1);
+  if (dashed_) pen.setStyle(Qt::DashLine);
+  for (std::size_t k = 0; k < seg_.size(); ++k) {
+    if (mass_[k] < cut) continue;
+    const bool hi = anyHighlight && (hiFromA_ ? entries_[k].i : entries_[k].j) == hiIndex_;
+    if (hi) continue;  // drawn last
+    QColor c = color_;
+    // Opacity ∝ mass, with a floor so light segments stay faintly visible; dimmed further
+    // while a point is hovered so its own segments stand out.
+    c.setAlphaF(std::clamp(0.06 + 0.8 * mass_[k] / maxMass_, 0.0, 1.0) * (anyHighlight ? 0.35 : 1.0));
+    pen.setColor(c);
+    painter->setPen(pen);
+    painter->drawLine(coordsToPixels(seg_[k][0], seg_[k][1]), coordsToPixels(seg_[k][2], seg_[k][3]));
+  }
+  if (!anyHighlight) return;
+  for (std::size_t k = 0; k < seg_.size(); ++k) {
+    if ((hiFromA_ ? entries_[k].i : entries_[k].j) != hiIndex_) continue;
+    QPen hp(color_, 1.0 + 3.0 * mass_[k] / maxMass_);
+    painter->setPen(hp);
+    painter->drawLine(coordsToPixels(seg_[k][0], seg_[k][1]), coordsToPixels(seg_[k][2], seg_[k][3]));
+  }
+}
+
+void SegmentLayer::drawLegendIcon(QCPPainter* painter, const QRectF& rect) const {
+  QPen pen(color_, 1.6);
+  if (dashed_) pen.setStyle(Qt::DashLine);
+  painter->setPen(pen);
+  painter->drawLine(QLineF(rect.left(), rect.center().y(), rect.right(), rect.center().y()));
+}
+
+}  // namespace barrow::ui

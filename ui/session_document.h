@@ -1,0 +1,67 @@
+// The open session as the window sees it: the clouds, measure settings and sweep settings,
+// the undo history of every edit, the file it belongs to and whether it has unsaved changes.
+#pragma once
+
+#include <QObject>
+#include <QString>
+#include <QUndoStack>
+#include <optional>
+
+#include "io/session_io.h"
+
+namespace barrow::ui {
+
+enum class Which { A, B };
+
+class SessionDocument : public QObject {
+  Q_OBJECT
+ public:
+  explicit SessionDocument(QObject* parent = nullptr);
+
+  const Session& session() const { return session_; }
+  const Cloud& cloud(Which w) const { return w == Which::A ? session_.a : session_.b; }
+  QUndoStack* undoStack() { return &undo_; }
+
+  /// Replaces the whole session (open, new): clears the history and marks it saved.
+  void reset(const Session& s, const QString& path);
+  const QString& path() const { return path_; }
+  void setPath(const QString& p);
+  bool isModified() const { return !undo_.isClean(); }
+  void markSaved();
+
+  // Edits: each is one undo step named by `text`.
+  void setClouds(const Cloud& a, const Cloud& b, const QString& text);
+  void setCloud(Which w, const Cloud& c, const QString& text);
+  void setParam(const std::string& key, const std::string& value);
+  void setSweep(const SweepSettings& s, const QString& text = tr("Change sweep"));
+  void setSelected(const std::vector<std::string>& ids);
+
+  /// A continuous edit (dragging points): preview() shows intermediate clouds without
+  /// history entries; commitPreview() records one step from the state at beginPreview().
+  void beginPreview();
+  void preview(const Cloud& a, const Cloud& b);
+  void commitPreview(const QString& text);
+  void cancelPreview();
+  bool previewing() const { return previewBase_.has_value(); }
+
+  /// Used by the undo commands: installs a state without recording history.
+  void apply(const Session& s);
+
+ signals:
+  void cloudsChanged();
+  void paramsChanged();
+  void sweepChanged();
+  void selectionChanged();
+  void modifiedChanged(bool modified);
+  void pathChanged(const QString& path);
+
+ private:
+  void push(const Session& after, const QString& text);
+
+  Session session_;
+  QString path_;
+  QUndoStack undo_;
+  std::optional<Session> previewBase_;
+};
+
+}  // namespace barrow::ui

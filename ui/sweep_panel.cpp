@@ -1,0 +1,414 @@
+#include "sweep_panel.h"
+
+#include <QCheckBox>
+#include <QComboBox>
+#include <QDoubleSpinBox>
+#include <QHBoxLayout>
+#include <QLabel>
+#include <QProgressBar>
+#include <QPushButton>
+#include <QSpinBox>
+#include <QVBoxLayout>
+#include <algorithm>
+#include <cmath>
+#include <sstream>
+
+#if __has_include("families/family_map.h")
+#include "families/family_map.h"
+#define BARROW_UI_HAVE_FAMILIES 1
+#endif
+#include "measures/registry.h"
+#include "sweep_plots.h"
+
+namespace barrow::ui {
+
+namespace {
+
+QDoubleSpinBox* number(QWidget* parent, double lo, double hi, int decimals, const QString& tip) {
+  auto* s = new QDoubleSpinBox(parent);
+  s->setRange(lo, hi);
+  s->setDecimals(decimals);
+  s->setKeyboardTracking(false);
+  s->setToolTip(tip);
+  s->setMaximumWidth(80);
+  return s;
+}
+
+QWidget* row(QWidget* parent, std::initializer_list<QWidget*> widgets) {
+  auto* w = new QWidget(parent);
+  auto* l = new QHBoxLayout(w);
+  l->setContentsMargins(0, 0, 0, 0);
+  l->setSpacing(4);
+  for (QWidget* x : widgets) l->addWidget(x);
+  return w;
+}
+
+void csvCell(std::ostringstream& o, double v) {
+  if (std::isnan(v)) return;
+  if (std::isinf(v)) {
+    o << (v > 0 ? "inf" : "-inf");
+    return;
+  }
+  o << v;
+}
+
+// The family's natural θ range (the engine's when it has one).
+std::pair<double, double> naturalRange(const std::string& family) {
+#ifdef BARROW_UI_HAVE_FAMILIES
+  return defaultFamilyRange(family);
+#else
+  if (family == "rotate") return {-180, 180};
+  if (family == "scale") return {0.25, 2};
+  if (family == "interpolate" || family == "mix") return {0, 1};
+  return {-1, 1};
+#endif
+}
+
+}  // namespace
+
+QString SweepPanel::thetaLabel(const SweepSettings& s) {
+  if (s.family == "shift")
+    return tr("θ: distance A is moved along (%1, %2)").arg(s.direction[0], 0, 'g', 3).arg(s.direction[1], 0, 'g', 3);
+  if (s.family == "rotate") return tr("θ: rotation of A in degrees");
+  if (s.family == "scale") return tr("θ: scale factor of A");
+  if (s.family == "interpolate") return tr("θ = t: displacement interpolation from A (0) to B (1)");
+  if (s.family == "mix") return tr("θ: share of B in the mixture (1−θ)A + θB");
+  return "θ";
+}
+
+SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
+    : QWidget(parent), doc_(doc), plots_(new SweepPlots(this)) {
+  family_ = new QComboBox(this);
+  for (const auto& f : familyNames()) family_->addItem(QString::fromStdString(f));
+  family_->setToolTip(tr("How A moves along the sweep (B stays fixed)"));
+  dirX_ = number(this, -1e6, 1e6, 3, tr("Shift direction, x component (normalised at use)"));
+  dirY_ = number(this, -1e6, 1e6, 3, tr("Shift direction, y component (normalised at use)"));
+  autoCenter_ = new QCheckBox(tr("centroid"), this);
+  autoCenter_->setToolTip(tr("Rotate or scale about A's weighted centroid; untick to give a pivot"));
+  centerX_ = number(this, -1e6, 1e6, 3, tr("Pivot x"));
+  centerY_ = number(this, -1e6, 1e6, 3, tr("Pivot y"));
+  from_ = number(this, -1e6, 1e6, 3, tr("First θ of the sweep"));
+  to_ = number(this, -1e6, 1e6, 3, tr("Last θ of the sweep"));
+  steps_ = new QSpinBox(this);
+  steps_->setRange(2, 100001);
+  steps_->setKeyboardTracking(false);
+  steps_->setToolTip(tr("Number of θ values (refinement near jumps adds more)"));
+  reference_ = number(this, -1e6, 1e6, 3,
+                      tr("Reference θ₀: data-dependent settings (bandwidths, grids) are frozen here, "
+                         "and the Measures table shows changes from the values at θ₀"));
+  normalise_ = new QCheckBox(tr("Normalise to [0, 1]"), this);
+  normalise_->setChecked(true);
+  normalise_->setToolTip(tr("Map each curve to [0, 1] so that measures of different scales share one axis"));
+  runButton_ = new QPushButton(tr("Run sweep"), this);
+  runButton_->setToolTip(tr("Evaluate every ticked measure along the θ range (Ctrl+R)"));
+  cancelButton_ = new QPushButton(tr("Cancel"), this);
+  cancelButton_->setToolTip(tr("Stop the running sweep"));
+  cancelButton_->setEnabled(false);
+  progress_ = new QProgressBar(this);
+  progress_->setRange(0, 1000);
+  progress_->setTextVisible(false);
+  progress_->setMaximumWidth(120);
+  progress_->setToolTip(tr("Progress of the current pass"));
+  progress_->setVisible(false);
+  status_ = new QLabel(this);
+  status_->setToolTip(tr("Outcome of the last sweep"));
+
+  shiftBox_ = row(this, {new QLabel(tr("direction"), this), dirX_, dirY_});
+  centerBox_ = row(this, {new QLabel(tr("pivot"), this), autoCenter_, centerX_, centerY_});
+  // Two short rows rather than one long one, so the panel can be narrow.
+  auto* familyRow = new QHBoxLayout();
+  familyRow->setSpacing(6);
+  familyRow->addWidget(new QLabel(tr("Family"), this));
+  familyRow->addWidget(family_);
+  familyRow->addWidget(shiftBox_);
+  familyRow->addWidget(centerBox_);
+  familyRow->addStretch(1);
+  familyRow->addWidget(normalise_);
+  auto* rangeRow = new QHBoxLayout();
+  rangeRow->setSpacing(6);
+  rangeRow->addWidget(new QLabel(tr("θ from"), this));
+  rangeRow->addWidget(from_);
+  rangeRow->addWidget(new QLabel(tr("to"), this));
+  rangeRow->addWidget(to_);
+  rangeRow->addWidget(new QLabel(tr("steps"), this));
+  rangeRow->addWidget(steps_);
+  rangeRow->addWidget(new QLabel(tr("θ₀"), this));
+  rangeRow->addWidget(reference_);
+  rangeRow->addStretch(1);
+  auto* actions = new QHBoxLayout();
+  actions->addWidget(runButton_);
+  actions->addWidget(cancelButton_);
+  actions->addWidget(progress_);
+  actions->addWidget(status_, 1);
+  status_->setSizePolicy(QSizePolicy::Ignored, QSizePolicy::Preferred);
+  auto* top = new QHBoxLayout();
+  auto* settings = new QVBoxLayout();
+  settings->setSpacing(2);
+  settings->addLayout(familyRow);
+  settings->addLayout(rangeRow);
+  top->addLayout(settings, 1);
+  auto* layout = new QVBoxLayout(this);
+  layout->setContentsMargins(4, 2, 4, 2);
+  layout->setSpacing(2);
+  layout->addLayout(top);
+  layout->addLayout(actions);
+  layout->addWidget(plots_, 1);
+
+  if (!SweepRunner::available()) {
+    runButton_->setEnabled(false);
+    runButton_->setToolTip(tr("This build has no sweep engine"));
+  }
+  connect(family_, &QComboBox::currentTextChanged, this, [this](const QString& f) {
+    if (loading_) return;
+    // A new family gets its natural range unless the current one still fits it.
+    SweepSettings s = doc_->session().sweep;
+    s.family = f.toStdString();
+    const auto [lo, hi] = naturalRange(s.family);
+    if (s.validate()) {
+      s.from = lo;
+      s.to = hi;
+      s.reference.reset();
+    }
+    if (s.validate()) s.reference = lo;
+    doc_->setSweep(s, tr("Sweep family: %1").arg(f));
+  });
+  for (QDoubleSpinBox* s : {dirX_, dirY_, centerX_, centerY_, from_, to_, reference_})
+    connect(s, &QDoubleSpinBox::editingFinished, this, &SweepPanel::commit);
+  connect(steps_, &QSpinBox::editingFinished, this, &SweepPanel::commit);
+  connect(autoCenter_, &QCheckBox::toggled, this, [this] {
+    updateFamilyControls();
+    commit();
+  });
+  connect(normalise_, &QCheckBox::toggled, plots_, &SweepPlots::setNormalised);
+  connect(runButton_, &QPushButton::clicked, this, &SweepPanel::run);
+  connect(cancelButton_, &QPushButton::clicked, this, &SweepPanel::cancel);
+  connect(&runner_, &SweepRunner::progress, this, [this](double f) { progress_->setValue(int(f * 1000)); });
+  connect(&runner_, &SweepRunner::finished, this, [this](const SweepOutcome& o) {
+    if (!o.error.empty()) {
+      error_ = o.error;
+      queue_.clear();
+      status_->setText(tr("Sweep failed: %1").arg(QString::fromStdString(o.error)));
+      emit message(status_->text());
+      setActive(false);
+      emit outcomeReady();
+      return;
+    }
+    if (o.result.cancelled) {
+      cancelled_ = true;
+      queue_.clear();
+      status_->setText(tr("Cancelled: the curves shown are from the passes that finished."));
+      setActive(false);
+      emit outcomeReady();
+      return;
+    }
+    parts_.push_back(o);
+    plots_->setResult([this] {
+      std::vector<SweepResult> r;
+      for (const auto& p : parts_) r.push_back(p.result);
+      return r;
+    }(), findings());
+    double seconds = 0;
+    std::size_t series = 0, thetas = 0;
+    for (const auto& p : parts_) {
+      seconds += p.result.seconds;
+      series += p.result.series.size();
+      thetas = std::max(thetas, p.result.theta.size());
+    }
+    status_->setText(tr("%1 θ values × %2 measures in %3 s").arg(thetas).arg(series).arg(seconds, 0, 'f', 2));
+    emit outcomeReady();
+    startNextPass();
+  });
+  connect(plots_, &SweepPlots::thetaChanged, this, &SweepPanel::thetaChanged);
+  connect(doc_, &SessionDocument::sweepChanged, this, [this] {
+    loadFromSession();
+    plots_->setStale(true);
+  });
+  connect(doc_, &SessionDocument::cloudsChanged, this, [this] {
+    if (!doc_->previewing()) plots_->setStale(true);
+  });
+  connect(doc_, &SessionDocument::paramsChanged, this, [this] { plots_->setStale(true); });
+  connect(doc_, &SessionDocument::selectionChanged, this, [this] { plots_->setStale(true); });
+  loadFromSession();
+}
+
+void SweepPanel::loadFromSession() {
+  loading_ = true;
+  const SweepSettings& s = doc_->session().sweep;
+  family_->setCurrentText(QString::fromStdString(s.family));
+  dirX_->setValue(s.direction[0]);
+  dirY_->setValue(s.direction[1]);
+  autoCenter_->setChecked(!s.center.has_value());
+  if (s.center) {
+    centerX_->setValue((*s.center)[0]);
+    centerY_->setValue((*s.center)[1]);
+  }
+  from_->setValue(s.from);
+  to_->setValue(s.to);
+  steps_->setValue(s.steps);
+  reference_->setValue(s.reference.value_or(s.from));
+  updateFamilyControls();
+  plots_->setAxisLabel(thetaLabel(s));
+  plots_->setRange(s.from, s.to);
+  plots_->setReference(s.reference.value_or(s.from));
+  loading_ = false;
+}
+
+void SweepPanel::updateFamilyControls() {
+  const QString f = family_->currentText();
+  shiftBox_->setVisible(f == "shift");
+  centerBox_->setVisible(f == "rotate" || f == "scale");
+  centerX_->setEnabled(!autoCenter_->isChecked());
+  centerY_->setEnabled(!autoCenter_->isChecked());
+}
+
+void SweepPanel::commit() {
+  if (loading_) return;
+  SweepSettings s = doc_->session().sweep;
+  s.family = family_->currentText().toStdString();
+  s.direction = {dirX_->value(), dirY_->value()};
+  if (autoCenter_->isChecked()) s.center.reset();
+  else s.center = std::array<double, 2>{centerX_->value(), centerY_->value()};
+  s.from = from_->value();
+  s.to = to_->value();
+  s.steps = steps_->value();
+  s.reference = reference_->value();
+  if (auto e = s.validate()) {
+    emit message(tr("Sweep settings not changed: %1").arg(QString::fromStdString(*e)));
+    loadFromSession();  // show what is in force
+    return;
+  }
+  doc_->setSweep(s);
+}
+
+std::vector<std::string> SweepPanel::measureIds() const {
+  const auto& sel = doc_->session().selected;
+  if (!sel.empty()) return sel;
+  std::vector<std::string> all;
+  for (const Measure* m : MeasureRegistry::instance().all()) all.push_back(m->id());
+  return all;
+}
+
+void SweepPanel::run() {
+  if (!SweepRunner::available()) {
+    emit message(tr("This build has no sweep engine."));
+    return;
+  }
+  SweepSettings s = doc_->session().sweep;
+  s.measures = measureIds();
+  if (auto e = s.validate()) {
+    status_->setText(tr("Cannot sweep: %1").arg(QString::fromStdString(*e)));
+    return;
+  }
+  std::vector<std::string> cheap, slow;
+  for (const auto& id : s.measures) {
+    const Measure* m = MeasureRegistry::instance().find(id);
+    (m && !m->cheap() ? slow : cheap).push_back(id);
+  }
+  queue_.clear();
+  if (!cheap.empty()) queue_.push_back(cheap);
+  if (!slow.empty()) queue_.push_back(slow);
+  runSettings_ = s;
+  runA_ = doc_->session().a;
+  runB_ = doc_->session().b;
+  runParams_ = doc_->session().params;
+  parts_.clear();
+  error_.clear();
+  cancelled_ = false;
+  plots_->clear(QString());
+  setActive(true);
+  startNextPass();
+}
+
+void SweepPanel::startNextPass() {
+  if (queue_.empty()) {
+    setActive(false);
+    return;
+  }
+  SweepSettings s = runSettings_;
+  s.measures = queue_.front();
+  queue_.erase(queue_.begin());
+  QStringList names;
+  for (const auto& id : s.measures) names << QString::fromStdString(id);
+  status_->setText(parts_.empty() ? tr("Sweeping %1…").arg(names.join(", "))
+                                  : tr("%1 — now the slow measures: %2…").arg(status_->text(), names.join(", ")));
+  progress_->setValue(0);
+  runner_.start(runA_, runB_, s, runParams_);
+}
+
+void SweepPanel::setActive(bool on) {
+  if (on == active_) return;
+  active_ = on;
+  cancelButton_->setEnabled(on);
+  runButton_->setText(on ? tr("Restart sweep") : tr("Run sweep"));
+  progress_->setVisible(on);
+  emit runningChanged(on);
+}
+
+void SweepPanel::cancel() {
+  queue_.clear();
+  runner_.cancel();
+}
+
+bool SweepPanel::running() const { return active_; }
+
+std::vector<Finding> SweepPanel::findings() const {
+  std::vector<Finding> all;
+  for (const auto& p : parts_) all.insert(all.end(), p.findings.begin(), p.findings.end());
+  // In the registry's order, whichever pass they came from.
+  const auto& order = MeasureRegistry::instance().all();
+  auto rank = [&](const std::string& id) {
+    for (std::size_t k = 0; k < order.size(); ++k)
+      if (order[k]->id() == id) return k;
+    return order.size();
+  };
+  std::stable_sort(all.begin(), all.end(), [&](const Finding& x, const Finding& y) { return rank(x.id) < rank(y.id); });
+  return all;
+}
+
+std::string SweepPanel::toCsv() const {
+  std::vector<double> grid;
+  std::vector<const SweepSeries*> series;
+  std::vector<const std::vector<double>*> thetaOf;
+  for (const auto& p : parts_) {
+    grid.insert(grid.end(), p.result.theta.begin(), p.result.theta.end());
+    for (const auto& s : p.result.series) {
+      series.push_back(&s);
+      thetaOf.push_back(&p.result.theta);
+    }
+  }
+  if (grid.empty()) return {};
+  std::sort(grid.begin(), grid.end());
+  grid.erase(std::unique(grid.begin(), grid.end()), grid.end());
+  std::ostringstream o;
+  o.precision(17);
+  o << "theta";
+  for (const auto* s : series) o << ',' << s->id;
+  for (const auto* s : series) o << ",d_" << s->id;
+  o << '\n';
+  // Row k of series s, or -1 when that pass has no value at θ.
+  auto rowOf = [&](std::size_t s, double th) -> long {
+    const auto& t = *thetaOf[s];
+    const auto it = std::lower_bound(t.begin(), t.end(), th);
+    return it != t.end() && *it == th ? long(it - t.begin()) : -1;
+  };
+  for (double th : grid) {
+    o << th;
+    for (std::size_t s = 0; s < series.size(); ++s) {
+      o << ',';
+      const long k = rowOf(s, th);
+      const SweepSeries& x = *series[s];
+      if (k >= 0 && std::size_t(k) < x.value.size() && std::size_t(k) < x.status.size() &&
+          (x.status[k] == Status::Ok || x.status[k] == Status::Infinite || x.status[k] == Status::NotConverged))
+        csvCell(o, x.value[k]);
+    }
+    for (std::size_t s = 0; s < series.size(); ++s) {
+      o << ',';
+      const long k = rowOf(s, th);
+      if (k >= 0 && std::size_t(k) < series[s]->slope.size()) csvCell(o, series[s]->slope[k]);
+    }
+    o << '\n';
+  }
+  return o.str();
+}
+
+}  // namespace barrow::ui

@@ -1,0 +1,95 @@
+// The Sweep: the family that moves A and its θ range, run/cancel with progress, the
+// normalise toggle, and the two plot panes (SweepPlots). Settings edits are undoable
+// session edits; the outcome (curves and findings) is kept for export and the Findings list.
+// A run sweeps the cheap measures first and shows them, then the slow ones
+// (Measure::cheap() == false) in a second pass, so most curves appear within seconds.
+#pragma once
+
+#include <QWidget>
+#include <optional>
+
+#include "session_document.h"
+#include "sweep_runner.h"
+
+class QComboBox;
+class QDoubleSpinBox;
+class QSpinBox;
+class QCheckBox;
+class QPushButton;
+class QProgressBar;
+class QLabel;
+
+namespace barrow::ui {
+
+class SweepPlots;
+
+class SweepPanel : public QWidget {
+  Q_OBJECT
+ public:
+  SweepPanel(SessionDocument* doc, QWidget* parent = nullptr);
+
+  void run();
+  void cancel();
+  bool running() const;
+  SweepPlots* plots() const { return plots_; }
+  /// The passes of the last run that finished (cheap measures, then slow ones).
+  const std::vector<SweepOutcome>& parts() const { return parts_; }
+  std::vector<Finding> findings() const;
+  /// Why the last run produced nothing, or "" (also "" while running).
+  const std::string& error() const { return error_; }
+  bool cancelled() const { return cancelled_; }
+  /// The sweep as CSV: theta,<id>,...,d_<id>,... (inf for ∞, empty where failed). The
+  /// passes' θ grids are merged; a measure has no value at a θ that refinement added in the
+  /// other pass, and its cell there is empty.
+  std::string toCsv() const;
+  /// Axis label of θ for a family ("θ: distance moved along (1, 0)").
+  static QString thetaLabel(const SweepSettings& s);
+  QPushButton* runButton() const { return runButton_; }
+  QPushButton* cancelButton() const { return cancelButton_; }
+
+ signals:
+  void outcomeReady();
+  void runningChanged(bool running);
+  void thetaChanged(std::optional<double> theta);
+  void message(const QString& text);
+
+ private:
+  void loadFromSession();
+  void startNextPass();
+  void setActive(bool on);
+  void commit();
+  void updateFamilyControls();
+  std::vector<std::string> measureIds() const;
+
+  SessionDocument* doc_;
+  SweepRunner runner_;
+  SweepPlots* plots_;
+  QComboBox* family_;
+  QDoubleSpinBox* dirX_;
+  QDoubleSpinBox* dirY_;
+  QCheckBox* autoCenter_;
+  QDoubleSpinBox* centerX_;
+  QDoubleSpinBox* centerY_;
+  QDoubleSpinBox* from_;
+  QDoubleSpinBox* to_;
+  QSpinBox* steps_;
+  QDoubleSpinBox* reference_;
+  QCheckBox* normalise_;
+  QPushButton* runButton_;
+  QPushButton* cancelButton_;
+  QProgressBar* progress_;
+  QLabel* status_;
+  QWidget* shiftBox_;
+  QWidget* centerBox_;
+  std::vector<SweepOutcome> parts_;
+  std::vector<std::vector<std::string>> queue_;  // passes still to run
+  SweepSettings runSettings_;
+  Cloud runA_, runB_;
+  ParamSet runParams_;
+  std::string error_;
+  bool cancelled_ = false;
+  bool active_ = false;
+  bool loading_ = false;
+};
+
+}  // namespace barrow::ui

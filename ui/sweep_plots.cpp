@@ -1,0 +1,368 @@
+#include "sweep_plots.h"
+
+#include <QLabel>
+#include <QVBoxLayout>
+#include <algorithm>
+#include <cmath>
+#include <qcustomplot.h>
+
+#include "measure_style.h"
+#include "palette.h"
+
+namespace barrow::ui {
+
+namespace {
+
+struct Scale {
+  double lo = 0, span = 1;
+};
+
+// Min and span of the finite values (normalisation to [0, 1]).
+Scale finiteScale(const std::vector<double>& v) {
+  double lo = INFINITY, hi = -INFINITY;
+  for (double x : v)
+    if (std::isfinite(x)) {
+      lo = std::min(lo, x);
+      hi = std::max(hi, x);
+    }
+  if (!std::isfinite(lo)) return {};
+  return {lo, hi > lo ? hi - lo : 1.0};
+}
+
+void placeLine(QCPItemStraightLine* l, double x) {
+  l->point1->setCoords(x, 0);
+  l->point2->setCoords(x, 1);
+}
+
+// A range for the slopes that is not crushed by the huge finite differences across a jump:
+// the spikes run off the pane, the ordinary slopes stay readable.
+QCPRange robustRange(const std::vector<double>& v) {
+  std::vector<double> mag;
+  double lo = INFINITY, hi = -INFINITY;
+  for (double x : v) {
+    if (!std::isfinite(x)) continue;
+    mag.push_back(std::abs(x));
+    lo = std::min(lo, x);
+    hi = std::max(hi, x);
+  }
+  if (mag.empty()) return QCPRange(-1, 1);
+  const std::size_t q = std::min(mag.size() - 1, std::size_t(0.9 * double(mag.size())));
+  std::nth_element(mag.begin(), mag.begin() + std::ptrdiff_t(q), mag.end());
+  const double limit = 3.0 * mag[q];
+  if (limit > 0) {
+    lo = std::max(lo, -limit);
+    hi = std::min(hi, limit);
+  }
+  if (!(hi > lo)) {
+    lo -= 0.5;
+    hi += 0.5;
+  }
+  const double pad = 0.06 * (hi - lo);
+  return QCPRange(lo - pad, hi + pad);
+}
+
+}  // namespace
+
+SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot(this)), hint_(new QLabel(this)) {
+  auto* layout = new QVBoxLayout(this);
+  layout->setContentsMargins(0, 0, 0, 0);
+  layout->setSpacing(0);
+  layout->addWidget(hint_);
+  layout->addWidget(plot_, 1);
+  hint_->setWordWrap(true);
+  hint_->setVisible(false);
+  hint_->setStyleSheet("color: #8a4b00;");
+  plot_->setObjectName("sweepPlot");
+  plot_->setToolTip(tr("Top: each measure against θ. Bottom: dD/dθ (analytic where the theory gives it, "
+                       "finite differences otherwise). Click or drag to move the θ cursor; double-click releases it."));
+  plot_->setInteractions(QCP::Interactions());
+  plot_->setAntialiasedElements(QCP::aePlottables);
+  plot_->setMinimumHeight(160);
+
+  // Layout: value pane over slope pane in column 0, the legend beside the value pane.
+  values_ = plot_->axisRect();
+  slopes_ = new QCPAxisRect(plot_);
+  plot_->plotLayout()->addElement(1, 0, slopes_);
+  plot_->plotLayout()->setRowStretchFactor(0, 3);
+  plot_->plotLayout()->setRowStretchFactor(1, 2);
+  plot_->plotLayout()->setRowSpacing(0);
+  values_->setMargins(QMargins(0, 0, 0, 0));
+  auto* group = new QCPMarginGroup(plot_);
+  values_->setMarginGroup(QCP::msLeft | QCP::msRight, group);
+  slopes_->setMarginGroup(QCP::msLeft | QCP::msRight, group);
+  for (QCPAxis* a : slopes_->axes()) a->setLayer("axes");
+  for (QCPGrid* g : {slopes_->axis(QCPAxis::atBottom)->grid(), slopes_->axis(QCPAxis::atLeft)->grid()}) g->setLayer("grid");
+  values_->axis(QCPAxis::atBottom)->setTickLabels(false);
+  connect(values_->axis(QCPAxis::atBottom), qOverload<const QCPRange&>(&QCPAxis::rangeChanged),
+          slopes_->axis(QCPAxis::atBottom), qOverload<const QCPRange&>(&QCPAxis::setRange));
+  values_->axis(QCPAxis::atLeft)->setLabel(tr("D (normalised)"));
+  slopes_->axis(QCPAxis::atLeft)->setLabel(tr("dD/dθ"));
+  slopes_->axis(QCPAxis::atBottom)->setLabel("θ");
+
+  QCPLegend* legend = plot_->legend;
+  legend->setVisible(true);
+  values_->insetLayout()->take(legend);
+  plot_->plotLayout()->addElement(0, 1, legend);
+  plot_->plotLayout()->setColumnStretchFactor(1, 0.001);
+  legend->setFont(font());
+  legend->setRowSpacing(-2);
+  legend->setBorderPen(Qt::NoPen);
+  legend->setMargins(QMargins(4, 2, 4, 2));
+  legend->setIconSize(22, 10);
+  legend->setLayer("legend");
+
+  connect(plot_, &QCustomPlot::mousePress, this, &SweepPlots::onPress);
+  connect(plot_, &QCustomPlot::mouseMove, this, &SweepPlots::onMove);
+  connect(plot_, &QCustomPlot::mouseRelease, this, [this] { dragging_ = false; });
+  connect(plot_, &QCustomPlot::mouseDoubleClick, this, [this] {
+    setCursor(std::nullopt);
+    emit thetaChanged(std::nullopt);
+  });
+
+  QPen refPen(QColor(110, 110, 110), 1, Qt::DashDotLine);
+  refV_ = verticalLine(values_, refPen);
+  refS_ = verticalLine(slopes_, refPen);
+  QPen cur(palette::cursor(), 2.2);
+  cursorV_ = verticalLine(values_, cur);
+  cursorS_ = verticalLine(slopes_, cur);
+  cursorV_->setVisible(false);
+  cursorS_->setVisible(false);
+  clear(tr("Run a sweep to see how each measure responds as A moves."));
+}
+
+QCPItemStraightLine* SweepPlots::verticalLine(QCPAxisRect* rect, const QPen& pen) {
+  auto* l = new QCPItemStraightLine(plot_);
+  l->setPen(pen);
+  l->setSelectable(false);
+  l->setClipAxisRect(rect);
+  for (QCPItemPosition* p : {l->point1, l->point2}) {
+    p->setAxes(rect->axis(QCPAxis::atBottom), rect->axis(QCPAxis::atLeft));
+    p->setAxisRect(rect);
+    p->setTypeX(QCPItemPosition::ptPlotCoords);
+    p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+  }
+  placeLine(l, 0);
+  return l;
+}
+
+void SweepPlots::showHint(const QString& text) {
+  hint_->setText(text);
+  hint_->setVisible(!text.isEmpty());
+}
+
+void SweepPlots::setAxisLabel(const QString& label) {
+  slopes_->axis(QCPAxis::atBottom)->setLabel(label);
+  plot_->replot(QCustomPlot::rpQueuedReplot);
+}
+
+void SweepPlots::setRange(double from, double to) {
+  from_ = from;
+  to_ = to;
+  if (curves_.empty()) {
+    values_->axis(QCPAxis::atBottom)->setRange(from, to);
+    plot_->replot(QCustomPlot::rpQueuedReplot);
+  }
+}
+
+void SweepPlots::setReference(double theta0) {
+  placeLine(refV_, theta0);
+  placeLine(refS_, theta0);
+  plot_->replot(QCustomPlot::rpQueuedReplot);
+}
+
+void SweepPlots::clear(const QString& hint) {
+  curves_.clear();
+  findings_.clear();
+  message_.clear();
+  stale_ = false;
+  showHint(hint);
+  rebuild();
+}
+
+void SweepPlots::setResult(const std::vector<SweepResult>& parts, const std::vector<Finding>& findings) {
+  curves_.clear();
+  message_.clear();
+  for (const SweepResult& r : parts) {
+    for (const SweepSeries& s : r.series) curves_.push_back({s.id, r.theta, s.value, s.slope});
+    if (!r.message.empty()) message_ += (message_.isEmpty() ? "" : "\n") + QString::fromStdString(r.message);
+  }
+  std::stable_sort(curves_.begin(), curves_.end(),
+                   [](const Curve& x, const Curve& y) { return measureRank(x.id) < measureRank(y.id); });
+  findings_ = findings;
+  stale_ = false;
+  showHint(message_);
+  rebuild();
+}
+
+void SweepPlots::setStale(bool stale) {
+  if (stale == stale_ || curves_.empty()) return;
+  stale_ = stale;
+  showHint(stale ? tr("The clouds or settings changed since this sweep: run it again to update the curves.")
+                 : message_);
+  rebuild();
+}
+
+void SweepPlots::setNormalised(bool on) {
+  normalised_ = on;
+  values_->axis(QCPAxis::atLeft)->setLabel(on ? tr("D (normalised)") : tr("D"));
+  slopes_->axis(QCPAxis::atLeft)->setLabel(on ? tr("dD/dθ (normalised)") : tr("dD/dθ"));
+  rebuild();
+}
+
+void SweepPlots::highlight(const std::string& id) {
+  if (id == highlighted_) return;
+  highlighted_ = id;
+  rebuild();
+}
+
+void SweepPlots::rebuild() {
+  plot_->clearGraphs();
+  // Keep the cursor and reference lines; drop the finding markers.
+  for (int k = plot_->itemCount() - 1; k >= 0; --k) {
+    QCPAbstractItem* it = plot_->item(k);
+    if (it != cursorV_ && it != cursorS_ && it != refV_ && it != refS_) plot_->removeItem(it);
+  }
+  QCPAxis* vx = values_->axis(QCPAxis::atBottom);
+  QCPAxis* vy = values_->axis(QCPAxis::atLeft);
+  QCPAxis* sx = slopes_->axis(QCPAxis::atBottom);
+  QCPAxis* sy = slopes_->axis(QCPAxis::atLeft);
+  double lo = INFINITY, hi = -INFINITY, ylo = INFINITY, yhi = -INFINITY;
+  std::vector<double> allSlopes;
+  for (std::size_t s = 0; s < curves_.size(); ++s) {
+    const Curve& c = curves_[s];
+    const Scale sc = normalised_ ? finiteScale(c.value) : Scale{0, 1};
+    QVector<double> x, y, dy;
+    for (std::size_t k = 0; k < c.theta.size(); ++k) {
+      const double v = k < c.value.size() ? c.value[k] : NAN;
+      const double d = k < c.slope.size() ? c.slope[k] : NAN;
+      x.push_back(c.theta[k]);
+      y.push_back(std::isfinite(v) ? (v - sc.lo) / sc.span : qQNaN());  // gaps where ∞ or failed
+      dy.push_back(std::isfinite(d) ? d / sc.span : qQNaN());
+      if (std::isfinite(v)) {
+        ylo = std::min(ylo, y.back());
+        yhi = std::max(yhi, y.back());
+      }
+      if (std::isfinite(d)) allSlopes.push_back(dy.back());
+    }
+    if (!c.theta.empty()) {
+      lo = std::min(lo, c.theta.front());
+      hi = std::max(hi, c.theta.back());
+    }
+    const bool hiLite = !highlighted_.empty() && c.id == highlighted_;
+    const bool faded = (!highlighted_.empty() && !hiLite) || stale_;
+    QPen pen = measurePen(c.id, hiLite ? 3.2 : 1.7);
+    if (faded) {
+      QColor col = pen.color();
+      col.setAlphaF(0.25);
+      pen.setColor(col);
+    }
+    QString name = QString::fromStdString(c.id);
+    if (std::any_of(c.value.begin(), c.value.end(), [](double v) { return std::isinf(v); })) name += " (∞)";
+    auto* g = plot_->addGraph(vx, vy);
+    g->setData(x, y, true);
+    g->setPen(pen);
+    g->setName(name);
+    auto* gs = plot_->addGraph(sx, sy);
+    gs->setData(x, dy, true);
+    gs->setPen(pen);
+    gs->removeFromLegend();
+    if (hiLite) {  // on top of the others
+      g->setLayer("overlay");
+      gs->setLayer("overlay");
+    }
+  }
+  // Findings. Jumps of every measure as short ticks along the top edge; the highlighted
+  // measure's jumps as full dashed lines and its flat stretches shaded.
+  for (const Finding& f : findings_) {
+    if (std::none_of(curves_.begin(), curves_.end(), [&](const Curve& x) { return x.id == f.id; })) continue;
+    const QColor c = measurePen(f.id).color();
+    const bool full = f.id == highlighted_;
+    for (const Jump& j : f.jumps) {
+      if (full) {
+        for (QCPAxisRect* r : {values_, slopes_}) {
+          auto* l = verticalLine(r, QPen(c, 1.4, Qt::DashLine));
+          placeLine(l, j.theta);
+        }
+      } else {
+        auto* seg = new QCPItemLine(plot_);
+        seg->setClipAxisRect(values_);
+        seg->setPen(QPen(c, 2.2));
+        for (QCPItemPosition* p : {seg->start, seg->end}) {
+          p->setAxes(vx, vy);
+          p->setAxisRect(values_);
+          p->setTypeX(QCPItemPosition::ptPlotCoords);
+          p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+        }
+        seg->start->setCoords(j.theta, 0.0);
+        seg->end->setCoords(j.theta, 0.07);
+      }
+    }
+    if (!full) continue;
+    for (const auto& [t0, t1] : f.flat) {
+      auto* r = new QCPItemRect(plot_);
+      r->setClipAxisRect(values_);
+      for (QCPItemPosition* p : {r->topLeft, r->bottomRight}) {
+        p->setAxes(vx, vy);
+        p->setAxisRect(values_);
+        p->setTypeX(QCPItemPosition::ptPlotCoords);
+        p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+      }
+      r->topLeft->setCoords(t0, 0);
+      r->bottomRight->setCoords(t1, 1);
+      QColor fill = c;
+      fill.setAlphaF(0.15);
+      r->setBrush(fill);
+      r->setPen(Qt::NoPen);
+      r->setLayer("background");
+    }
+  }
+  if (curves_.empty() || !(hi > lo)) {
+    vx->setRange(from_, to_);
+    vy->setRange(0, 1);
+    sy->setRange(-1, 1);
+  } else {
+    vx->setRange(lo, hi);
+    if (!(yhi > ylo)) {
+      ylo -= 0.5;
+      yhi += 0.5;
+    }
+    const double pad = 0.05 * (yhi - ylo);
+    vy->setRange(ylo - pad, yhi + pad);
+    sy->setRange(robustRange(allSlopes));
+  }
+  sx->setRange(vx->range());
+  plot_->replot(QCustomPlot::rpQueuedReplot);
+}
+
+void SweepPlots::setCursor(std::optional<double> theta) {
+  cursor_ = theta;
+  cursorV_->setVisible(theta.has_value());
+  cursorS_->setVisible(theta.has_value());
+  if (theta) {
+    placeLine(cursorV_, *theta);
+    placeLine(cursorS_, *theta);
+  }
+  plot_->replot(QCustomPlot::rpQueuedReplot);
+}
+
+void SweepPlots::placeCursor(double theta, bool notify) {
+  const QCPRange r = values_->axis(QCPAxis::atBottom)->range();
+  theta = std::clamp(theta, std::min(r.lower, r.upper), std::max(r.lower, r.upper));
+  setCursor(theta);
+  if (notify) emit thetaChanged(theta);
+}
+
+void SweepPlots::onPress(QMouseEvent* e) {
+  if (e->button() != Qt::LeftButton) return;
+  const QPoint p = e->position().toPoint();
+  if (!values_->rect().contains(p) && !slopes_->rect().contains(p)) return;
+  dragging_ = true;
+  placeCursor(values_->axis(QCPAxis::atBottom)->pixelToCoord(e->position().x()), true);
+}
+
+void SweepPlots::onMove(QMouseEvent* e) {
+  if (!dragging_ || !(e->buttons() & Qt::LeftButton)) return;
+  placeCursor(values_->axis(QCPAxis::atBottom)->pixelToCoord(e->position().x()), true);
+}
+
+}  // namespace barrow::ui

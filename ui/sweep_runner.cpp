@@ -1,0 +1,96 @@
+#include "sweep_runner.h"
+
+#include <QPromise>
+#include <QtConcurrent/QtConcurrentRun>
+
+#include "measures/run_control.h"
+
+#if __has_include("sweep/sweep_engine.h") && __has_include("sweep/continuity.h")
+#include "sweep/continuity.h"
+#include "sweep/sweep_engine.h"
+#define BARROW_UI_HAVE_SWEEP 1
+#endif
+
+namespace barrow::ui {
+
+namespace {
+
+SweepOutcome runOne(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params,
+                    const std::atomic<bool>* cancel, QPromise<SweepOutcome>& promise) {
+  SweepOutcome out;
+#ifdef BARROW_UI_HAVE_SWEEP
+  RunControl control;
+  control.cancel = cancel;
+  control.onProgress = [&promise](double f) {
+    promise.setProgressValue(int(1000 * std::clamp(f, 0.0, 1.0)));
+    return !promise.isCanceled();
+  };
+  SweepRequest req;
+  req.settings = settings;
+  req.params = params;
+  try {
+    out.result = runSweep(a, b, req, &control);
+    if (!out.result.cancelled) out.findings = findContinuity(out.result);
+  } catch (const std::exception& e) {
+    out.error = e.what();
+  }
+#else
+  (void)a; (void)b; (void)settings; (void)params; (void)cancel; (void)promise;
+  out.error = "this build has no sweep engine";
+#endif
+  return out;
+}
+
+}  // namespace
+
+bool SweepRunner::available() {
+#ifdef BARROW_UI_HAVE_SWEEP
+  return true;
+#else
+  return false;
+#endif
+}
+
+SweepRunner::SweepRunner(QObject* parent) : QObject(parent) {}
+
+SweepRunner::~SweepRunner() {
+  cancel();
+  if (watcher_) watcher_->waitForFinished();
+}
+
+void SweepRunner::start(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params) {
+  cancel();
+  const quint64 id = ++latest_;
+  cancel_ = std::make_shared<std::atomic<bool>>(false);
+  auto flag = cancel_;
+  QFuture<SweepOutcome> future = QtConcurrent::run(
+      [a, b, settings, params, flag](QPromise<SweepOutcome>& promise) {
+        promise.setProgressRange(0, 1000);
+        promise.addResult(runOne(a, b, settings, params, flag.get(), promise));
+      });
+  auto* w = new QFutureWatcher<SweepOutcome>(this);
+  watcher_ = w;
+  connect(w, &QFutureWatcherBase::progressValueChanged, this, [this, id](int v) {
+    if (id == latest_) emit progress(v / 1000.0);
+  });
+  connect(w, &QFutureWatcherBase::finished, this, [this, w, id] {
+    w->deleteLater();
+    if (watcher_ == w) watcher_ = nullptr;
+    if (id != latest_) return;  // superseded by a newer sweep
+    running_ = false;
+    emit runningChanged(false);
+    if (w->future().resultCount() == 0) return;
+    emit finished(w->future().result());
+  });
+  w->setFuture(future);
+  if (!running_) {
+    running_ = true;
+    emit runningChanged(true);
+  }
+}
+
+void SweepRunner::cancel() {
+  if (cancel_) *cancel_ = true;
+}
+
+}  // namespace barrow::ui
