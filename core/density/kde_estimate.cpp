@@ -16,6 +16,12 @@ namespace {
 constexpr double kRelativeTolerance = 1e-2;
 constexpr double kAbsoluteTolerance = 1e-6;
 
+// Extent of the points of positive weight of both clouds, per axis.
+Eigen::Vector2d pooledSpan(const Cloud& a, const Cloud& b) {
+  const PooledStats s = pooledStats(a, b);
+  return s.max - s.min;
+}
+
 }  // namespace
 
 Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const DensitySettings& s,
@@ -33,6 +39,17 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
   if (!bw.note.empty()) d["bandwidth_note"] = bw.note;
 
   const KdeGridOptions opt;
+  // Below a hundredth of a node per bandwidth the grid cannot see the kernels at all.
+  const Eigen::Vector2d span = pooledSpan(a, b);
+  const double needed = (span.x() / bw.s.x() + 2 * opt.margin) * (span.y() / bw.s.y() + 2 * opt.margin);
+  if (!(needed * 1e-4 <= double(opt.maxCells))) {
+    std::ostringstream m;
+    m.precision(3);
+    m << "density.bandwidth (" << bw.s.x() << ", " << bw.s.y() << ") is too small for clouds spanning ("
+      << span.x() << ", " << span.y() << "): within its budget of " << opt.maxCells
+      << " nodes the integration grid would get fewer than 0.01 nodes per bandwidth";
+    return Result::invalid(m.str());
+  }
   const ExactLogs exact{kind == DivergenceKind::KlBA, kind == DivergenceKind::KlAB};
   const KdePairGrid pair = evaluateKdePair(a, b, bw.s, opt, exact, ctx.control);
   bool cancelled = pair.cancelled;

@@ -28,6 +28,8 @@ KdeGrid makeKdeGrid(const Eigen::Vector2d& lo, const Eigen::Vector2d& hi, const 
   double q = opt.nodesPerBandwidth;
   const double budget = double(opt.maxCells);
   if ((ux * q + 2) * (uy * q + 2) > budget) q = std::sqrt(budget / (ux * uy)) * 0.98;
+  // An axis has at least 3 nodes, so the other may have at most budget/3.
+  q = std::min(q, budget / 3.0 / std::max(ux, uy));
   KdeGrid g;
   for (;; q *= 0.95) {
     g.x = axisFor(lo.x(), hi.x(), s.x(), q, opt.margin);
@@ -101,6 +103,7 @@ UncutLogKde::UncutLogKde(const Cloud& c, const Eigen::Vector2d& s, const GridAxi
     logWeight_(k) = std::log(w(i)) + logNorm;
     ++k;
   }
+  if (double(m) * x.count > kMaxCachedKernels) return;  // too large to keep: exps per node
   kx_.resize(m, x.count);
   for (int ix = 0; ix < x.count; ++ix)
     kx_.col(ix) = (-0.5 * ((x_ - x.at(ix)) / s.x()).square()).exp().matrix();
@@ -112,9 +115,10 @@ void UncutLogKde::beginRow(double y) {
 }
 
 double UncutLogKde::at(int ix) const {
-  const double f = kx_.col(ix).dot(row_);
-  if (f > 1e-280) return std::log(f);
   const double x = axis_->at(ix);
+  const double f = kx_.size() > 0 ? kx_.col(ix).dot(row_)
+                                  : ((-0.5 * ((x_ - x) / s_.x()).square()).exp() * row_.array()).sum();
+  if (f > 1e-280) return std::log(f);
   const Eigen::ArrayXd e = logWeight_ - 0.5 * (((x_ - x) / s_.x()).square() + ((y_ - rowY_) / s_.y()).square());
   const double top = e.maxCoeff();
   return top + std::log((e - top).exp().sum());

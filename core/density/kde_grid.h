@@ -64,6 +64,7 @@ class UncutLogKde {
   Eigen::MatrixXd kx_;                // n × columns: exp(−½((x_ix − x_i)/s_x)²)
   Eigen::VectorXd row_;               // v_i for the current row
   double rowY_ = 0.0;
+  static constexpr double kMaxCachedKernels = 32e6;  // 256 MB of K_x; beyond, exps per node
 };
 
 }  // namespace barrow

@@ -268,6 +268,10 @@ TEST(KdeTest, TooSmallBandwidthIsReportedNotConverged) {
   EXPECT_EQ(r.status, Status::NotConverged);
   EXPECT_NE(r.message.find("too coarse"), std::string::npos) << r.message;
   EXPECT_LT(r.details["nodes_per_bandwidth"].get<double>(), 1.0);
+  // Far below that the grid could not see a kernel at all: invalid input, saying why.
+  const Result tiny = run("js", Cloud("A", pa), Cloud("B", pb), {"density.bandwidth=1e-300"});
+  EXPECT_EQ(tiny.status, Status::InvalidInput);
+  EXPECT_NE(tiny.message.find("too small"), std::string::npos) << tiny.message;
 }
 
 TEST(KdeTest, CancellationStopsTheEvaluation) {
