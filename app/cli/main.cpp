@@ -17,8 +17,10 @@ usage:
   barrow-cli plan     --a A.csv --b B.csv [--cost w1|w2] --out plan.csv
   barrow-cli sweep    --a A.csv --b B.csv --family shift|rotate|scale|interpolate|mix
                       [--direction dx,dy] [--from F --to T --steps N] [--measures ...] --out sweep.csv
+                      [--center x,y] [--reference R] [--set key=value ...] [--threads N]
+                      [--no-refine] [--no-warm-start]
   barrow-cli findings --sweep sweep.csv  (or the sweep options)  [--json]
-  barrow-cli demo     (writes a demo scenario and runs a sweep on it)
+  barrow-cli demo     (writes a demo scenario and runs a sweep on it)  [--out DIR] [--json]
   barrow-cli --help | --version
 
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
