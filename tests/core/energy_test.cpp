@@ -62,7 +62,7 @@ TEST(EnergyTest, EqualsTwiceMmdWithDistanceInducedKernel) {
   const Cloud a = scatterCloud("A", 40, 3, 0.0), b = scatterCloud("B", 35, 4, 0.8);
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
   const double e = runEnergy(a, b).details["energy"].get<double>();
-  for (const Eigen::Vector2d z0 : {Eigen::Vector2d(0, 0), Eigen::Vector2d(10, -3)}) {
+  for (const Eigen::Vector2d& z0 : {Eigen::Vector2d(0, 0), Eigen::Vector2d(10, -3)}) {
     auto k = [&](const Eigen::Vector2d& x, const Eigen::Vector2d& y) {
       return 0.5 * ((x - z0).norm() + (y - z0).norm() - (x - y).norm());
     };

@@ -173,8 +173,9 @@ TEST(MedianDistanceTest, MatchesNumpyMedianOfPdist) {
       const MedianDistance streamed = medianPairwiseDistance(p, {}, forced);
       EXPECT_TRUE(streamed.complete);
       EXPECT_NEAR(streamed.value, ref, 1e-14 * ref) << p.rows() << " limit " << limit << " " << streamed.method;
-      if (limit == 1000 && p.rows() > 2 && p.rows() < 400)  // random sets (grid ties overfill it)
+      if (limit == 1000 && p.rows() > 2 && p.rows() < 400) {  // random sets (grid ties overfill it)
         EXPECT_NE(streamed.method.find("bracket"), std::string::npos) << p.rows();
+      }
       forced.sampleBracket = false;
       EXPECT_NEAR(medianPairwiseDistance(p, {}, forced).value, ref, 1e-14 * ref) << p.rows() << " limit " << limit;
     }
