@@ -7,47 +7,45 @@ namespace barrow {
 
 std::vector<ParamSpec> densityParamSpecs() {
   using namespace density_key;
-  std::vector<ParamSpec> specs(5);
-  specs[0].key = kEstimator;
-  specs[0].kind = ParamKind::Choice;
-  specs[0].defaultValue = "hist";
-  specs[0].choices = {"hist", "kde", "knn"};
-  specs[0].help = "density estimator: hist (fixed grid), kde (Gaussian), knn (KL only, unweighted)";
-
-  specs[1].key = kBin;
-  specs[1].defaultValue = "auto";
-  specs[1].choices = {"auto"};
-  specs[1].min = 0;
-  specs[1].minExclusive = true;
-  specs[1].unit = "coordinate units";
-  specs[1].help = "hist: square bin width, or auto = 3.504*sigma*N^(-1/4) on the pooled sample";
-
-  specs[2].key = kOrigin;
-  specs[2].kind = ParamKind::RealPair;
-  specs[2].defaultValue = "auto";
-  specs[2].choices = {"auto"};
-  specs[2].unit = "coordinate units";
-  specs[2].help = "hist: x,y of a grid corner (edges at origin + k*bin), or auto = pooled minimum "
-                  "rounded down to a multiple of the bin";
-
-  specs[3].key = kBandwidth;
-  specs[3].kind = ParamKind::RealPair;
-  specs[3].defaultValue = "scott";
-  specs[3].choices = {"scott", "silverman"};
-  specs[3].min = 0;
-  specs[3].minExclusive = true;
-  specs[3].unit = "coordinate units";
-  specs[3].help = "kde: s or sx,sy, or a rule on the pooled sample: scott (sd*N^(-1/6)) or "
-                  "silverman (min(sd, IQR/1.349)*N^(-1/6))";
-
-  specs[4].key = kK;
-  specs[4].kind = ParamKind::Integer;
-  specs[4].defaultValue = "5";
-  specs[4].min = 1;
-  specs[4].max = 1000;
-  specs[4].unit = "neighbours";
-  specs[4].help = "knn: neighbour rank k (5: lower variance than 1 at a few hundred points)";
-  return specs;
+  return {
+      {.key = kEstimator,
+       .kind = ParamKind::Choice,
+       .defaultValue = "hist",
+       .choices = {"hist", "kde", "knn"},
+       .unit = "",
+       .help = "density estimator: hist (fixed grid), kde (Gaussian), knn (KL only, unweighted)"},
+      {.key = kBin,
+       .defaultValue = "auto",
+       .min = 0,
+       .minExclusive = true,
+       .choices = {"auto"},
+       .unit = "coordinate units",
+       .help = "hist: square bin width, or auto = 3.504*sigma*N^(-1/4) on the pooled sample"},
+      {.key = kOrigin,
+       .kind = ParamKind::RealPair,
+       .defaultValue = "auto",
+       .choices = {"auto"},
+       .unit = "coordinate units",
+       .help = "hist: x,y of a grid corner (edges at origin + k*bin), or auto = pooled minimum "
+               "rounded down to a multiple of the bin"},
+      {.key = kBandwidth,
+       .kind = ParamKind::RealPair,
+       .defaultValue = "scott",
+       .min = 0,
+       .minExclusive = true,
+       .choices = {"scott", "silverman"},
+       .unit = "coordinate units",
+       .help = "kde: s or sx,sy, or a rule on the pooled sample: scott (sd*N^(-1/6)) or "
+               "silverman (min(sd, IQR/1.349)*N^(-1/6))"},
+      {.key = kK,
+       .kind = ParamKind::Integer,
+       .defaultValue = "5",
+       .min = 1,
+       .max = 1000,
+       .choices = {},
+       .unit = "neighbours",
+       .help = "knn: neighbour rank k (5: lower variance than 1 at a few hundred points)"},
+  };
 }
 
 namespace {
