@@ -22,7 +22,9 @@ NearestBatch nearestAll(const KdTree& tree, const Eigen::MatrixX2d& queries, con
                         int threads = 0);
 
 /// Nearest neighbours both ways between two point sets: ab[i] is the nearest row of b to a's
-/// row i, ba[j] the nearest row of a to b's row j. Builds both trees (in parallel), then queries.
+/// row i, ba[j] the nearest row of a to b's row j (ties: the smaller row). Repeated points are
+/// collapsed first (each location queried and indexed once: coincident points would make the
+/// tree search linear). Builds both trees (in parallel), then queries.
 struct MutualNearest {
   NearestBatch ab, ba;
   bool complete = true;

@@ -8,6 +8,8 @@
 //   BM_MedianDistance/N exact median pairwise distance of N pooled points alone
 //   BM_Chamfer/n        Chamfer (two k-d trees + n + m threaded queries)
 //   BM_Hausdorff/n      Hausdorff
+//   BM_ChamferRepeated/n  Chamfer where A's n points sit on only 100 grid locations (repeated
+//                         points: each location is queried and indexed once)
 // Counter pairs_per_s: pair evaluations per second of wall time.
 //
 // Run: build with -DBARROW_BUILD_BENCH=ON, then
@@ -67,6 +69,19 @@ void BM_Energy(benchmark::State& s) { runMeasure(s, "energy", {}, kernelPairs(do
 void BM_Chamfer(benchmark::State& s) { runMeasure(s, "chamfer", {}, 0); }
 void BM_Hausdorff(benchmark::State& s) { runMeasure(s, "hausdorff", {}, 0); }
 
+void BM_ChamferRepeated(benchmark::State& state) {
+  const int n = int(state.range(0));
+  Eigen::MatrixX2d p(n, 2);
+  for (int i = 0; i < n; ++i) p.row(i) << (i % 10) * 0.1, ((i / 10) % 10) * 0.1;
+  const Cloud a("A", p), b = blob("B", n, 2, 0.5);
+  const Measure& m = *MeasureRegistry::instance().find("chamfer");
+  Result r;
+  for (auto _ : state) {
+    r = evaluateMeasure(m, a, b, EvalRequest{});
+    benchmark::DoNotOptimize(r);
+  }
+}
+
 void BM_MmdGradient(benchmark::State& state) {
   const int n = int(state.range(0));
   const Cloud a = blob("A", n, 1, 0.0), b = blob("B", n, 2, 0.5);
@@ -103,6 +118,7 @@ BENCHMARK(BM_Energy)->Arg(2000)->Arg(5000)->Arg(20000)->Unit(benchmark::kMillise
 BENCHMARK(BM_MedianDistance)->Arg(2000)->Arg(40000)->Unit(benchmark::kMillisecond)->UseRealTime();
 BENCHMARK(BM_Chamfer)->Arg(10000)->Arg(100000)->Unit(benchmark::kMillisecond)->UseRealTime();
 BENCHMARK(BM_Hausdorff)->Arg(10000)->Arg(100000)->Unit(benchmark::kMillisecond)->UseRealTime();
+BENCHMARK(BM_ChamferRepeated)->Arg(100000)->Unit(benchmark::kMillisecond)->UseRealTime();
 
 }  // namespace
 }  // namespace barrow

@@ -81,6 +81,32 @@ TEST(ChamferTest, MatchesBruteForceOnLargerClouds) {
   EXPECT_NEAR(runChamfer(a, b, false).value, ref, 1e-12 * ref);
 }
 
+// [D] brute force on clouds made of few locations, each repeated many times with different
+// weights (repeated points are queried once per location; the sums still weigh every row).
+TEST(ChamferTest, RepeatedPointsMatchBruteForce) {
+  std::mt19937 rng(11);
+  std::uniform_int_distribution<int> pick(0, 24);
+  std::uniform_real_distribution<double> w(0.1, 1.0);
+  Eigen::MatrixX2d pa(3000, 2), pb(2000, 2);
+  Eigen::VectorXd wa(3000), wb(2000);
+  for (int i = 0; i < 3000; ++i) {
+    const int k = pick(rng);
+    pa.row(i) << k % 5, k / 5;
+    wa(i) = w(rng);
+  }
+  for (int j = 0; j < 2000; ++j) {
+    const int k = pick(rng);
+    pb.row(j) << 0.3 + k % 5, 0.7 * (k / 5);
+    wb(j) = w(rng);
+  }
+  const Cloud a("A", pa, wa), b("B", pb, wb);
+  const Eigen::VectorXd na = a.normalizedWeights(), nb = b.normalizedWeights();
+  double ref = 0;
+  for (Eigen::Index i = 0; i < a.size(); ++i) ref += na(i) * nearestTo(a.points.row(i), b);
+  for (Eigen::Index j = 0; j < b.size(); ++j) ref += nb(j) * nearestTo(b.points.row(j), a);
+  EXPECT_NEAR(runChamfer(a, b, false).value, ref, 1e-12 * ref);
+}
+
 // [D] a point without mass is not part of the measure: moving it anywhere changes nothing.
 TEST(ChamferTest, PointsWithoutMassAreLeftOut) {
   Cloud a = blobCloud("A", 30, 5, 0.0);
