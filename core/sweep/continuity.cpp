@@ -126,9 +126,18 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, b
   }
   f.continuous = f.jumps.empty();
   f.flat = flatStretches(c, o);
-  if (c.range == 0.0 && c.infinite == 0) {  // constant: no θ is better than another
+  // Constant, or varying by less than `constantShare` of its size (a rotation of a symmetric
+  // shape): no θ is better than another, and the relative thresholds above would only judge noise.
+  const double size = std::max(std::abs(c.low), std::abs(c.low + c.range));
+  if (c.infinite == 0 && c.range <= o.constantShare * size) {
     f.flat = {{theta.front(), theta.back()}};
+    f.jumps.clear();
+    f.continuous = true;
+    f.monotone = true;
     facts.constant = true;
+    facts.lowest = c.low;
+    f.summary = describeFinding(f, facts);
+    return f;
   }
   facts.lowest = c.low;
   facts.best = {NAN, NAN};

@@ -25,6 +25,7 @@ struct ContinuityOptions {
   double flatSlope = 1e-3;      // "negligible" slope, relative to range(D)/range(θ)
   double nearMinimum = 1e-2;    // D within this share of its range above the minimum is "at the minimum"
   double monotoneSlack = 1e-3;  // tolerated decrease away from the best θ, share of the range
+  double constantShare = 1e-6;  // D varying by less than this share of |D| counts as constant
   int minFlatPoints = 3;        // shorter runs (in points and in spacings) are not stretches
 };
 
