@@ -34,7 +34,7 @@ Result ChamferMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContex
   r.details["a_to_b"] = ab;
   r.details["b_to_a"] = ba;
   r.details["zero_weight_points"] = "left out (neither queried nor matched)";
-  return r;
+  return finiteOrInvalid(std::move(r), id());
 }
 
 std::optional<Eigen::MatrixX2d> ChamferMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,

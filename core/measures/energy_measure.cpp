@@ -17,7 +17,7 @@ Result EnergyMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext
   r.details["statistic"] = "V (all pairs, diagonal included)";
   r.details["points_used"] = {{"a", sa.size()}, {"b", sb.size()}};
   r.details["gradient_at_coincident_points"] = "0";
-  return r;
+  return finiteOrInvalid(std::move(r), id());
 }
 
 std::optional<Eigen::MatrixX2d> EnergyMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "kernel/gaussian_fit.h"
+#include "kernel/measure_outcome.h"
 
 namespace barrow {
 
@@ -36,7 +37,7 @@ Result FrechetMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContex
     r.message = warning;
     r.details["warning"] = warning;
   }
-  return r;
+  return finiteOrInvalid(std::move(r), id());
 }
 
 std::optional<Eigen::MatrixX2d> FrechetMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext&,

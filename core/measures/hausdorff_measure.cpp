@@ -30,7 +30,7 @@ Result HausdorffMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalCont
   r.details["attained_at"] = hab >= hba ? nlohmann::json{{"a_row", sa.rows[std::size_t(i)]}}
                                         : nlohmann::json{{"b_row", sb.rows[std::size_t(j)]}};
   r.details["weights"] = "ignored; points of zero weight left out";
-  return r;
+  return finiteOrInvalid(std::move(r), id());
 }
 
 std::optional<Eigen::MatrixX2d> HausdorffMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,

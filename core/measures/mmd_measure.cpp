@@ -46,6 +46,8 @@ Bandwidth chooseBandwidth(const SupportPoints& a, const SupportPoints& b, const 
       bw.error = "mmd.sigma = median: the median pairwise distance of the pooled points is 0 (at least "
                  "half of the pairs coincide); set mmd.sigma to a number";
   }
+  if (bw.error.empty() && !std::isfinite(bw.sigma))
+    bw.error = "mmd.sigma = median: the median pairwise distance is not a finite number (coordinates too large)";
   if (bw.error.empty() && !std::isfinite(1.0 / (2.0 * bw.sigma * bw.sigma)))
     bw.error = "mmd.sigma is too small to form the kernel (1/(2 sigma^2) overflows)";
   return bw;
@@ -128,7 +130,7 @@ Result MmdMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& c
     r.details["clamped"] = true;
     r.message = "MMD^2 estimate is negative (" + std::to_string(mmd2) + "); reported value clamped to 0";
   }
-  return r;
+  return finiteOrInvalid(std::move(r), id());
 }
 
 std::optional<Eigen::MatrixX2d> MmdMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,

@@ -205,5 +205,22 @@ TEST(MmdTest, BadInputGivesStatusAndMessage) {
   EXPECT_EQ(runMmd(b, b, {"mmd.sigma=1"}, &ctl).status, Status::Cancelled);
 }
 
+// [D] squared distances overflow double precision beyond ~1e154: every measure here says so
+// (invalid input) instead of reporting inf or NaN as a value. The MMD with a given sigma stays
+// valid: far-apart points simply have kernel value 0.
+TEST(KernelGeometricOverflowTest, HugeCoordinatesGiveInvalidInputNotInfinity) {
+  const Cloud a("A", (Eigen::MatrixX2d(2, 2) << 0, 0, 1, 0).finished());
+  const Cloud b("B", (Eigen::MatrixX2d(2, 2) << 1e200, 0, 1e200, 1).finished());
+  for (const char* id : {"mmd", "energy", "frechet", "chamfer", "hausdorff"}) {
+    const Result r = evaluateMeasure(*MeasureRegistry::instance().find(id), a, b, EvalRequest{});
+    EXPECT_EQ(r.status, Status::InvalidInput) << id << " gave " << r.value;
+    EXPECT_FALSE(r.message.empty()) << id;
+  }
+  const Result given = runMmd(a, b, {"mmd.sigma=1"});
+  ASSERT_EQ(given.status, Status::Ok);
+  // V-statistic: (1 + e^{-1/2})/2 within each cloud, cross terms 0: MMD^2 = 1 + e^{-1/2}.
+  EXPECT_NEAR(given.details["mmd2"].get<double>(), 1 + std::exp(-0.5), 1e-15);
+}
+
 }  // namespace
 }  // namespace barrow
