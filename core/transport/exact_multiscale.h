@@ -1,0 +1,40 @@
+// Coarse-to-fine start for the exact solver (the multiscale idea of Mérigot 2011, "A
+// multiscale approach to optimal transport", Comput. Graph. Forum 30(5) (mem), and
+// Schmitzer 2016, "A sparse multiscale algorithm for dense optimal transport", J. Math.
+// Imaging Vis. 56 (mem)): solve a problem on groups of nearby points first, then start the
+// full problem from what the coarse optimum says. Only the start changes; the final
+// pricing of all pairs still certifies the exact optimum.
+//
+// Groups come from median splits of each cloud along its wider axis (a k-d partition), so
+// they stay balanced when the clouds are clustered. A group becomes one point at its
+// mass-weighted mean carrying its total integer mass, so both coarse totals stay equal.
+#pragma once
+
+#include <utility>
+#include <vector>
+
+#include "transport/exact_initial_basis.h"
+#include "transport/exact_problem.h"
+
+namespace barrow {
+
+struct CoarseProblem {
+  ExactProblem problem;            // one point per group
+  std::vector<int> groupA, groupB; // group of each active point of the fine problem
+};
+
+/// Groups of at most `groupSize` points (>= 2) per side.
+CoarseProblem coarsen(const ExactProblem& fine, int groupSize);
+
+/// Starting arcs for the fine problem: `arcs` comes in with extra arcs (e.g. nearest
+/// neighbours) and leaves with every pair of points whose groups the coarse plan joins
+/// added (`coarsePlan` holds coarse (i, j) pairs), sorted and unique. The basis ships
+/// greedily along these arcs in order of reduced cost c_ij − U(group i) − V(group j) under
+/// the coarse potentials, so it follows the coarse optimum; mass left over is matched by the
+/// north-west rule.
+void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
+                 const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU,
+                 const Eigen::ArrayXd& coarseV, std::vector<std::pair<int, int>>* arcs,
+                 std::vector<FlowArc>* basis);
+
+}  // namespace barrow

@@ -1,0 +1,79 @@
+// Exact optimal transport between two weighted clouds in the plane, ground cost ‖x − y‖^p:
+//   min_π Σ π_ij ‖x_i − y_j‖^p  s.t.  Σ_j π_ij = a_i,  Σ_i π_ij = b_j,  π >= 0,
+// with a, b the normalised weights; the value reported is W_p = (optimal cost)^(1/p).
+//
+// Method: network simplex (see network_simplex.h) with column generation. The first
+// restricted problem holds each point's k nearest points on the other side plus a greedy
+// starting basis; after each restricted optimum, every one of the n·m pairs is priced from
+// coordinates and the violated arcs are added, until none is left. The answer is therefore
+// exact for the full problem (the final pricing is the certificate), while memory stays
+// O(n + m + arcs added). Dual potentials: u_i + v_j <= c_ij for every pair (u is the
+// c-transform of v), equality up to the tolerance on the support.
+//
+// Units: cost, u and v in (coordinate units)^p; value in coordinate units; plan masses under
+// the normalised weights (summing to 1).
+#pragma once
+
+#include <Eigen/Core>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "cloud/cloud.h"
+#include "measures/measure.h"
+#include "measures/result.h"
+#include "measures/run_control.h"
+
+namespace barrow {
+
+enum class ExactOtStatus {
+  Optimal,         // certificate holds: feasible plan, feasible duals, zero gap
+  InvalidInput,    // clouds or options rejected; see message
+  Cancelled,       // RunControl asked to stop; no result
+  IterationLimit,  // pivot budget spent; plan feasible but maybe not optimal
+};
+
+enum class InitialBasis {
+  Greedy,     // least cost first over the candidate arcs (measured faster; the default)
+  NorthWest,  // north-west corner along the principal axis
+};
+
+struct ExactOtOptions {
+  double p = 1.0;                 // ground cost ‖x − y‖^p, p >= 1
+  double tolerance = 1e-12;       // an arc may enter when its reduced cost < −tolerance·S,
+                                  // S = (bounding-box diagonal)^p; in (0, 1e-3]
+  long long maxPivots = 2000000000;  // iteration limit over all rounds, >= 0
+  int neighbours = 6;             // candidate arcs per point (k nearest), >= 0
+  int arcsPerRow = 8;             // violated arcs added per source and pricing round, >= 1
+  InitialBasis initial = InitialBasis::Greedy;  // start of the coarsest (or only) level
+  bool multiscale = true;         // start large problems from a solve on grouped points
+  int groupSize = 4;              // points per group on each coarser level, >= 2
+  int coarsestSize = 256;         // no coarser level once a side has at most this many points
+};
+
+struct ExactOtResult {
+  ExactOtStatus status = ExactOtStatus::InvalidInput;
+  std::string message = "solve was not called";
+  double cost = NAN;              // Σ π_ij c_ij
+  double value = NAN;             // cost^(1/p)
+  std::vector<PlanEntry> plan;    // nonzeros of π (at most n + m − 1), rows of A and B as given
+  Eigen::VectorXd u, v;           // potentials per input row of A and of B
+  long long pivots = 0;
+  long long degeneratePivots = 0;
+  int rounds = 0;                 // pricing passes over all pairs
+  int arcs = 0;                   // arcs the restricted problems held at the end
+  double seconds = 0.0;
+  double marginalError = NAN;     // max |row or column sum of π − weight|
+  double dualGap = NAN;           // cost − (Σ a_i u_i + Σ b_j v_j), >= 0
+  bool warmStarted = false;
+  std::optional<bool> planUnique; // false: some arc off the basis has zero reduced cost
+};
+
+/// Pre: none (bad clouds or options give InvalidInput). `warm` may be null; when it holds
+/// an ExactWarmState for clouds of the same sizes and weights the solve starts from it, and
+/// after an optimal solve it is replaced by this solve's state.
+ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions& options = {},
+                           const RunControl* control = nullptr, std::shared_ptr<WarmState>* warm = nullptr);
+
+}  // namespace barrow

@@ -1,0 +1,32 @@
+// Pricing of all n·m pairs for the exact solver, with costs computed from coordinates
+// (nothing of size n × m is stored), and the c-transform of a potential (Villani 2009,
+// "Optimal Transport: Old and New", Def. 5.7): v^c(x) = min_j (c(x, y_j) − v_j).
+#pragma once
+
+#include <Eigen/Core>
+#include <utility>
+#include <vector>
+
+#include "measures/run_control.h"
+#include "transport/exact_problem.h"
+
+namespace barrow {
+
+/// Arcs with reduced cost c_ij − u_i − v_j < −tol, at most `perRow` per source (the most
+/// negative ones). u, v are over the active points. Returns false when `control` asked to
+/// stop (polled every 256 rows, reporting `progress`); `violated` then holds what was found.
+bool priceAllPairs(const ExactProblem& pr, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v, double tol,
+                   int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
+                   double progress);
+
+/// u_i = v^c(x_i) for every active source, and per source the number of sinks whose
+/// c_ij − v_j lies within zeroTol of that minimum (the basis arcs plus any ties).
+void cTransformSources(const ExactProblem& pr, const Eigen::ArrayXd& v, double zeroTol, Eigen::ArrayXd* u,
+                       std::vector<int>* ties);
+
+/// v^c at one point (x, y) over the sites (sx, sy) with potentials v. Pre: at least one site.
+double cTransformAt(double x, double y, const Eigen::Ref<const Eigen::ArrayXd>& sx,
+                    const Eigen::Ref<const Eigen::ArrayXd>& sy, const Eigen::Ref<const Eigen::ArrayXd>& v,
+                    const GroundCost& cost);
+
+}  // namespace barrow
