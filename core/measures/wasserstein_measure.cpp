@@ -1,0 +1,71 @@
+#include "measures/wasserstein_measure.h"
+
+#include <algorithm>
+#include <climits>
+
+#include "transport/exact_cost.h"
+#include "transport/exact_ot.h"
+
+namespace barrow {
+
+std::string WassersteinMeasure::displayName() const {
+  return p_ == 1 ? "Wasserstein-1 (exact)" : "Wasserstein-2 (exact)";
+}
+
+std::string WassersteinMeasure::formula() const {
+  return p_ == 1 ? "min over couplings pi of sum pi_ij |x_i - y_j|"
+                 : "sqrt(min over couplings pi of sum pi_ij |x_i - y_j|^2)";
+}
+
+Result WassersteinMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
+  ExactOtOptions o;
+  o.p = p_;
+  ExactOtResult s = solveExactOt(a, b, o, ctx.control, ctx.warm);
+  Result r;
+  switch (s.status) {
+    case ExactOtStatus::InvalidInput: return Result::invalid(s.message);
+    case ExactOtStatus::Cancelled:
+      r.status = Status::Cancelled;
+      r.message = s.message;
+      return r;
+    case ExactOtStatus::IterationLimit:
+      r.status = Status::NotConverged;
+      r.value = s.value;
+      r.message = s.message + "; the value is the cost of a feasible plan (an upper bound)";
+      break;
+    case ExactOtStatus::Optimal: r = Result::ok(s.value); break;
+  }
+  r.iterations = int(std::min<long long>(s.pivots, INT_MAX));
+  r.u = std::move(s.u);
+  r.v = std::move(s.v);
+  if (ctx.wantPlan) r.plan = std::move(s.plan);
+  r.details = {{"solver", "network-simplex"},
+               {"cost", GroundCost(p_).label()},
+               {"pivots", s.pivots},
+               {"pricing_rounds", s.rounds},
+               {"warm_start", s.warmStarted},
+               {"marginal_error", s.marginalError},
+               {"duality_gap", s.dualGap}};
+  if (s.planUnique) r.details["plan_unique"] = *s.planUnique;
+  return r;
+}
+
+std::optional<Eigen::MatrixX2d> WassersteinMeasure::gradientA(const Cloud& a, const Cloud& b, const EvalContext&,
+                                                              const Result& r) const {
+  if (!r.usable() || r.plan.empty()) return std::nullopt;
+  if (p_ == 2 && !(r.value > 0)) return std::nullopt;
+  Eigen::MatrixX2d g = Eigen::MatrixX2d::Zero(a.size(), 2);
+  for (const auto& e : r.plan) {
+    if (e.i < 0 || e.i >= a.size() || e.j < 0 || e.j >= b.size()) return std::nullopt;
+    const Eigen::RowVector2d d = a.points.row(e.i) - b.points.row(e.j);
+    if (p_ == 2) {
+      g.row(e.i) += e.mass * d;
+    } else if (const double len = d.norm(); len > 0) {
+      g.row(e.i) += e.mass / len * d;
+    }
+  }
+  if (p_ == 2) g /= r.value;
+  return g;
+}
+
+}  // namespace barrow

@@ -1,0 +1,38 @@
+// The exact Wasserstein measures w1 and w2 (DESIGN.md): W_p between the normalised clouds,
+// ground cost ‖x − y‖^p, p ∈ {1, 2}; w2 reports sqrt of the optimal cost. Solved by the
+// network simplex of transport/exact_ot.h (exact, certified by pricing every pair).
+// Result: value, u/v (potentials of the cost ‖x − y‖^p, u_i + v_j <= c_ij), the plan
+// when asked (EvalContext::wantPlan), pivots as iterations, and details naming the solver.
+// Warm starts through EvalContext::warm (an ExactWarmState).
+#pragma once
+
+#include "measures/measure.h"
+
+namespace barrow {
+
+class WassersteinMeasure : public Measure {
+ public:
+  /// p = 1 (w1) or 2 (w2).
+  explicit WassersteinMeasure(int p) : p_(p) {}
+
+  std::string id() const override { return p_ == 1 ? "w1" : "w2"; }
+  std::string displayName() const override;
+  std::string formula() const override;
+  /// Exact but warm-started: re-solving after a point moves takes milliseconds for clouds of
+  /// a few thousand points.
+  bool cheap() const override { return true; }
+
+  Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
+
+  /// Envelope theorem through the optimal plan π (Villani 2009, Thm 10.28 (mem)):
+  /// W1: ∂/∂x_i = Σ_j π_ij (x_i − y_j)/‖x_i − y_j‖ (0 where x_i = y_j);
+  /// W2: ∂/∂x_i = (1/W2) Σ_j π_ij (x_i − y_j). One-sided when the plan is not unique
+  /// (details "plan_unique": false). nullopt without a plan, or for w2 at W2 = 0 (a kink).
+  std::optional<Eigen::MatrixX2d> gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,
+                                            const Result& r) const override;
+
+ private:
+  int p_;
+};
+
+}  // namespace barrow
