@@ -119,6 +119,89 @@ std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t 
   return out;
 }
 
+std::vector<const Measure*> pickMeasures(const SweepRequest& req, std::string* why) {
+  if (!req.measureObjects.empty()) {
+    if (std::count(req.measureObjects.begin(), req.measureObjects.end(), nullptr)) *why = "a measure object is null";
+    return req.measureObjects;
+  }
+  const auto& registry = MeasureRegistry::instance();
+  if (req.settings.measures.empty()) return registry.all();
+  std::vector<const Measure*> out;
+  for (const auto& id : req.settings.measures) {
+    const Measure* m = registry.find(id);
+    if (!m) {
+      *why = "unknown or unavailable measure '" + id + "'";
+      break;
+    }
+    out.push_back(m);
+  }
+  return out;
+}
+
+/// One series from the rows (sorted by θ): values as computed, slopes analytic where the
+/// cell has one and finite differences elsewhere, never across a jump.
+SweepSeries assembleSeries(const SweepJob& job, std::size_t j, const std::vector<Row*>& order,
+                           const std::vector<double>& theta, const StepRule& rule) {
+  SweepSeries ser;
+  ser.id = job.measure().id();
+  ser.frozen = job.frozen();
+  ser.details = job.referenceDetails();
+  ser.gradientMethod = job.analytic() ? "analytic" : "finite-difference";
+  for (const Row* r : order) {
+    const SweepCell& c = r->cells[j];
+    ser.value.push_back(c.value);
+    ser.status.push_back(c.status);
+    ser.seconds.push_back(c.seconds);
+    ser.oneSided.push_back(c.oneSided);
+    if (ser.message.empty() && !c.message.empty() && c.status != Status::Cancelled) ser.message = c.message;
+  }
+  std::vector<bool> jumpAfter(order.size(), false);
+  for (const StepInterval& st : classifySteps(theta, ser.value, rule))
+    if (st.jumpLike && st.right == st.left + 1) jumpAfter[st.left] = true;
+  const std::vector<double> fd = finiteDifferenceSlopes(theta, ser.value, jumpAfter);
+  int fallbacks = 0;
+  for (std::size_t k = 0; k < order.size(); ++k) {
+    const SweepCell& c = order[k]->cells[j];
+    ser.slope.push_back(c.analyticSlope ? c.slope : fd[k]);
+    if (!c.analyticSlope && job.analytic() && std::isfinite(c.value)) ++fallbacks;
+  }
+  if (fallbacks > 0) ser.details["gradient_fallbacks"] = fallbacks;
+  if (!job.setupError().empty()) ser.message = job.setupError();
+  return ser;
+}
+
+/// Bisects jump-like intervals (any series) until none is wider than the tolerance or the
+/// point budget is spent; records what it did in `out`.
+void refine(std::vector<std::unique_ptr<Row>>& rows, SweepRun& run, std::size_t measures,
+            const SweepRequest& req, SweepResult& out) {
+  const SweepSettings& s = req.settings;
+  const double tol = req.thetaTolerance > 0 ? req.thetaTolerance : 1e-5 * (s.to - s.from);
+  const int budget = req.maxRefinePoints > 0 ? req.maxRefinePoints : std::max(64, s.steps);
+  out.refineTolerance = tol;
+  while (!run.stopped()) {
+    std::vector<double> mids = refinementPoints(sortedRows(rows), measures, req.stepRule, tol);
+    if (mids.empty()) break;
+    const int room = budget - out.refinedPoints;
+    if (room <= 0) {
+      out.refineBudgetHit = true;
+      break;
+    }
+    if (int(mids.size()) > room) mids.resize(std::size_t(room));
+    std::sort(mids.begin(), mids.end());
+    std::vector<Row*> fresh;
+    for (double t : mids) {
+      auto row = std::make_unique<Row>();
+      row->theta = t;
+      row->cells.resize(measures);
+      fresh.push_back(row.get());
+      rows.push_back(std::move(row));
+    }
+    const double f0 = kGridShare + (1 - kGridShare) * out.refinedPoints / budget;
+    out.refinedPoints += int(mids.size());
+    run.evaluate(fresh, f0, kGridShare + (1 - kGridShare) * out.refinedPoints / budget);
+  }
+}
+
 std::optional<std::string> checkRequest(const SweepRequest& req) {
   if (auto e = req.settings.validate()) return e;
   if (req.threads < 0) return "the thread count must be 0 (all cores) or positive";
@@ -146,20 +229,9 @@ SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, co
   if (auto e = checkRequest(req)) return finish(*e);
   const SweepSettings& s = req.settings;
 
-  std::vector<const Measure*> measures;
-  const auto& registry = MeasureRegistry::instance();
-  if (!req.measureObjects.empty()) {
-    measures = req.measureObjects;
-    if (std::count(measures.begin(), measures.end(), nullptr)) return finish("a measure object is null");
-  } else if (s.measures.empty()) {
-    measures = registry.all();
-  } else {
-    for (const auto& id : s.measures) {
-      const Measure* m = registry.find(id);
-      if (!m) return finish("unknown or unavailable measure '" + id + "'");
-      measures.push_back(m);
-    }
-  }
+  std::string why;
+  const std::vector<const Measure*> measures = pickMeasures(req, &why);
+  if (!why.empty()) return finish(why);
   if (measures.empty()) return finish("no measure is available to sweep");
 
   const FamilyMap family(a, b, s);
@@ -189,69 +261,12 @@ SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, co
   std::vector<Row*> order = sortedRows(rows);
   run.evaluate(order, 0.0, req.refineJumps ? kGridShare : 1.0);
 
-  if (req.refineJumps && !run.stopped()) {
-    const double tol = req.thetaTolerance > 0 ? req.thetaTolerance : 1e-5 * (s.to - s.from);
-    const int budget = req.maxRefinePoints > 0 ? req.maxRefinePoints : std::max(64, s.steps);
-    out.refineTolerance = tol;
-    while (!run.stopped()) {
-      order = sortedRows(rows);
-      std::vector<double> mids = refinementPoints(order, jobs.size(), req.stepRule, tol);
-      if (mids.empty()) break;
-      const int room = budget - out.refinedPoints;
-      if (room <= 0) {
-        out.refineBudgetHit = true;
-        break;
-      }
-      if (int(mids.size()) > room) mids.resize(std::size_t(room));
-      std::sort(mids.begin(), mids.end());
-      std::vector<Row*> fresh;
-      for (double t : mids) {
-        auto row = std::make_unique<Row>();
-        row->theta = t;
-        row->cells.resize(jobs.size());
-        fresh.push_back(row.get());
-        rows.push_back(std::move(row));
-      }
-      const double f0 = kGridShare + (1 - kGridShare) * out.refinedPoints / budget;
-      out.refinedPoints += int(mids.size());
-      run.evaluate(fresh, f0, kGridShare + (1 - kGridShare) * out.refinedPoints / budget);
-    }
-  }
+  if (req.refineJumps && !run.stopped()) refine(rows, run, jobs.size(), req, out);
 
   order = sortedRows(rows);
   for (const Row* r : order) out.theta.push_back(r->theta);
-  for (std::size_t j = 0; j < jobs.size(); ++j) {
-    SweepSeries ser;
-    ser.id = jobs[j].measure().id();
-    ser.frozen = jobs[j].frozen();
-    ser.details = jobs[j].referenceDetails();
-    ser.gradientMethod = jobs[j].analytic() ? "analytic" : "finite-difference";
-    for (const Row* r : order) {
-      const SweepCell& c = r->cells[j];
-      ser.value.push_back(c.value);
-      ser.status.push_back(c.status);
-      ser.seconds.push_back(c.seconds);
-      ser.oneSided.push_back(c.oneSided);
-      if (ser.message.empty() && !c.message.empty() && c.status != Status::Cancelled) ser.message = c.message;
-    }
-    std::vector<bool> jumpAfter(order.size(), false);  // no differences across a jump
-    for (const StepInterval& st : classifySteps(out.theta, ser.value, req.stepRule))
-      if (st.jumpLike && st.right == st.left + 1) jumpAfter[st.left] = true;
-    const std::vector<double> fd = finiteDifferenceSlopes(out.theta, ser.value, jumpAfter);
-    int fallbacks = 0;
-    for (std::size_t k = 0; k < order.size(); ++k) {
-      const SweepCell& c = order[k]->cells[j];
-      if (c.analyticSlope) {
-        ser.slope.push_back(c.slope);
-      } else {
-        ser.slope.push_back(fd[k]);
-        if (jobs[j].analytic() && std::isfinite(c.value)) ++fallbacks;
-      }
-    }
-    if (fallbacks > 0) ser.details["gradient_fallbacks"] = fallbacks;
-    if (!jobs[j].setupError().empty()) ser.message = jobs[j].setupError();
-    out.series.push_back(std::move(ser));
-  }
+  for (std::size_t j = 0; j < jobs.size(); ++j)
+    out.series.push_back(assembleSeries(jobs[j], j, order, out.theta, req.stepRule));
   out.cancelled = run.stopped();
   return finish(out.cancelled ? "cancelled before the sweep finished; the rest is left empty" : "");
 }
