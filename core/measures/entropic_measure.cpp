@@ -1,0 +1,175 @@
+#include "measures/entropic_measure.h"
+
+#include <cmath>
+#include <memory>
+
+#include "transport/sinkhorn_plan.h"
+
+namespace barrow {
+
+namespace {
+
+constexpr double kAutoFraction = 1.0 / 20.0;  // auto ε = (D/20)^p: a blur of 5 % of the extent
+
+// Potentials kept between calls of a sweep (same sizes, same ε and p).
+struct EntropicWarm : WarmState {
+  Eigen::VectorXd f, g;
+  double epsilon = 0.0;
+  int p = 0;
+};
+
+}  // namespace
+
+std::vector<ParamSpec> entropicParamSpecs(const std::string& group) {
+  ParamSpec eps;
+  eps.key = group + ".epsilon";
+  eps.kind = ParamKind::Real;
+  eps.defaultValue = "auto";
+  eps.choices = {"auto"};
+  eps.min = 0.0;
+  eps.minExclusive = true;
+  eps.unit = "cost units";
+  eps.help = "entropic regularisation ε, absolute in cost units (length^p); auto = (D/20)^p with D "
+             "the joint diameter of A and B, frozen at a sweep's reference";
+  ParamSpec p;
+  p.key = group + ".p";
+  p.kind = ParamKind::Integer;
+  p.defaultValue = "2";
+  p.min = 1;
+  p.max = 2;
+  p.help = "ground cost |x-y|^p: 1 or 2";
+  ParamSpec iters;
+  iters.key = group + ".max_iterations";
+  iters.kind = ParamKind::Integer;
+  iters.defaultValue = "10000";
+  iters.min = 1;
+  iters.max = 1e8;
+  iters.unit = "iterations";
+  iters.help = "Sinkhorn iteration budget (annealing included); beyond it the result is not-converged";
+  ParamSpec tol;
+  tol.key = group + ".tolerance";
+  tol.kind = ParamKind::Real;
+  tol.defaultValue = "1e-6";
+  tol.min = 0.0;
+  tol.minExclusive = true;
+  tol.max = 0.5;
+  tol.help = "stop when the L1 error of the plan's marginals (masses sum to 1) is below this; the "
+             "value itself is typically accurate to far better";
+  return {eps, p, iters, tol};
+}
+
+EntropicSettings readEntropicSettings(const std::string& group, const ParamSet& params, const Cloud& a,
+                                      const Cloud& b) {
+  EntropicSettings s;
+  SinkhornOptions& o = s.options;
+  if (params.has(group + ".p")) o.p = params.integer(group + ".p");
+  if (params.has(group + ".max_iterations")) o.maxIterations = params.integer(group + ".max_iterations");
+  if (params.has(group + ".tolerance")) o.tolerance = params.real(group + ".tolerance");
+  s.diameter = jointDiameter(a, b);
+  const std::string key = group + ".epsilon";
+  s.automatic = !params.has(key) || params.isWord(key, "auto");
+  if (s.automatic) {
+    // All points in one place: every cost is 0 and OT_ε = 0 for any ε.
+    o.epsilon = s.diameter > 0 ? std::pow(kAutoFraction * s.diameter, o.p) : 1.0;
+  } else {
+    o.epsilon = params.real(key);
+  }
+  s.error = checkSinkhornOptions(o);
+  if (!s.error.empty()) s.error = group + ": " + s.error;
+  return s;
+}
+
+ParamSet freezeEntropic(const std::string& group, const Cloud& a, const Cloud& b, const ParamSet& resolved) {
+  ParamSet out = resolved;
+  const EntropicSettings s = readEntropicSettings(group, resolved, a, b);
+  if (s.automatic) {
+    char text[64];
+    std::snprintf(text, sizeof text, "%.17g", s.options.epsilon);
+    out.set(group + ".epsilon", text);
+  }
+  return out;
+}
+
+nlohmann::json entropicDetails(const EntropicSettings& s) {
+  const SinkhornOptions& o = s.options;
+  nlohmann::json d;
+  d["epsilon"] = o.epsilon;
+  d["epsilon_rule"] = s.automatic ? "auto: (D/20)^p" : "set";
+  d["joint_diameter"] = s.diameter;
+  if (s.diameter > 0) d["epsilon_relative"] = o.epsilon / std::pow(s.diameter, o.p);  // ε / D^p
+  d["p"] = o.p;
+  d["tolerance"] = o.tolerance;
+  d["convention"] = "min <P,C> + eps*KL(P|a x b)";
+  return d;
+}
+
+void addSolveDetails(nlohmann::json& d, const std::string& prefix, const SinkhornResult& r) {
+  d[prefix + "iterations"] = r.iterations;
+  d[prefix + "marginal_error"] = r.marginalError;
+  d[prefix + "epsilon_steps"] = r.stages;
+  d[prefix + "warm_start"] = r.warmStarted;
+}
+
+Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
+  const EntropicSettings s = readEntropicSettings("entropic", ctx.params, a, b);
+  if (!s.error.empty()) return Result::invalid(s.error);
+  const SinkhornOptions& o = s.options;
+  const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
+
+  SinkhornStart start;
+  if (ctx.warm && *ctx.warm) {
+    if (auto* w = dynamic_cast<EntropicWarm*>(ctx.warm->get()); w && w->p == o.p && w->epsilon == o.epsilon) {
+      start.f = &w->f;
+      start.g = &w->g;
+    }
+  }
+  kernel::RowWorkers team;
+  SinkhornResult sr = solveSinkhorn(a.points, wa, b.points, wb, o, ctx.control, &start, &team);
+  if (sr.status == SinkhornStatus::InvalidInput) return Result::invalid("entropic: " + sr.message);
+
+  Result r;
+  r.status = sr.status == SinkhornStatus::Converged       ? Status::Ok
+             : sr.status == SinkhornStatus::MaxIterations ? Status::NotConverged
+                                                          : Status::Cancelled;
+  r.value = sr.value;
+  r.message = sr.message;
+  r.iterations = sr.iterations;
+  r.details = entropicDetails(s);
+  addSolveDetails(r.details, "", sr);
+  if (r.status == Status::Cancelled) return r;
+
+  if (ctx.wantPlan) {
+    EntropicPlan plan = entropicPlan(a.points, wa, b.points, wb, sr.f, sr.g, o.epsilon, o.p, 200000, 1e-12, &team);
+    r.plan = std::move(plan.entries);
+    r.details["plan_entries"] = r.plan.size();
+    r.details["plan_mass_shown"] = plan.keptMass;
+    r.details["plan_truncated"] = plan.truncated;
+  }
+  if (ctx.warm) {
+    auto w = std::make_shared<EntropicWarm>();
+    w->f = sr.f;
+    w->g = sr.g;
+    w->epsilon = o.epsilon;
+    w->p = o.p;
+    *ctx.warm = w;
+  }
+  r.u = std::move(sr.f);
+  r.v = std::move(sr.g);
+  return r;
+}
+
+std::optional<Eigen::MatrixX2d> EntropicMeasure::gradientA(const Cloud& a, const Cloud& b,
+                                                           const EvalContext& ctx, const Result& r) const {
+  const EntropicSettings s = readEntropicSettings("entropic", ctx.params, a, b);
+  if (!s.error.empty() || !r.usable()) return std::nullopt;
+  const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
+  kernel::RowWorkers team;
+  // Re-solve from r's potentials: one pass confirms them (or finishes them if r stopped short
+  // of the tolerance), so the gradient always belongs to a solved problem.
+  SinkhornStart start{&r.u, &r.v};
+  const SinkhornResult sr = solveSinkhorn(a.points, wa, b.points, wb, s.options, ctx.control, &start, &team);
+  if (!sr.usable()) return std::nullopt;
+  return entropicGradient(a.points, wa, b.points, wb, sr.f, sr.g, s.options.epsilon, s.options.p, &team);
+}
+
+}  // namespace barrow

@@ -1,0 +1,274 @@
+#include "transport/sinkhorn_solver.h"
+
+#include <algorithm>
+#include <cmath>
+#include <memory>
+#include <sstream>
+#include <vector>
+
+#include "transport/kernel_pass.h"
+#include "transport/sinkhorn_relaxation.h"
+
+namespace barrow {
+
+namespace {
+
+using kernel::RowWorkers;
+using kernel::ScaledPoints;
+
+std::string checkCloud(const char* name, const Eigen::MatrixX2d& x, const Eigen::VectorXd& w) {
+  std::ostringstream s;
+  if (x.rows() == 0) return std::string(name) + " has no points";
+  if (w.size() != x.rows()) {
+    s << name << " has " << x.rows() << " points but " << w.size() << " weights";
+    return s.str();
+  }
+  if (!x.allFinite() || !w.allFinite()) return std::string(name) + " has a non-finite coordinate or weight";
+  if (w.minCoeff() < 0) return std::string(name) + " has a negative weight";
+  if (!(w.sum() > 0)) return std::string(name) + " has no mass (all weights are zero)";
+  return {};
+}
+
+// ε values from the data's extent^p down to the target (the target alone without scaling).
+std::vector<double> schedule(const SinkhornOptions& o, double extent) {
+  std::vector<double> eps;
+  if (o.epsilonScaling) {
+    for (double e = std::pow(extent, o.p); e > o.epsilon; e *= o.scalingFactor) eps.push_back(e);
+  }
+  eps.push_back(o.epsilon);
+  return eps;
+}
+
+// Side of the bounding box of both sets: an upper bound on the largest distance up to √2,
+// all the annealing start needs.
+double extentOf(const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y) {
+  const Eigen::RowVector2d lo = x.colwise().minCoeff().cwiseMin(y.colwise().minCoeff());
+  const Eigen::RowVector2d hi = x.colwise().maxCoeff().cwiseMax(y.colwise().maxCoeff());
+  return (hi - lo).norm();
+}
+
+// From the row ratios (row marginal / a_i) of the current plan: the L1 marginal error and
+// the plan's total mass. Zero-weight rows carry nothing.
+void measureMarginals(const Eigen::VectorXd& a, const std::vector<double>& ratio, double* error, double* mass) {
+  *error = 0.0;
+  *mass = 0.0;
+  for (Eigen::Index i = 0; i < a.size(); ++i)
+    if (a(i) > 0) {
+      *error += a(i) * std::abs(ratio[i] - 1.0);
+      *mass += a(i) * ratio[i];
+    }
+}
+
+// Fraction done for progress reports: annealing gets the first 20 %, the final stage the rest
+// by how far the error has come down towards the tolerance (log scale).
+double progressOf(int stage, int stages, double firstError, double error, double tolerance) {
+  if (stage + 1 < stages) return 0.2 * stage / std::max(1, stages - 1);
+  if (!(firstError > tolerance) || !std::isfinite(firstError)) return 0.2;
+  const double t = std::log(firstError / std::max(error, tolerance)) / std::log(firstError / tolerance);
+  return 0.2 + 0.8 * std::clamp(t, 0.0, 1.0);
+}
+
+// Stop tests shared by both solvers, made after each pass that measured the marginals.
+struct LoopControl {
+  const SinkhornOptions& o;
+  const RunControl* control;
+  SinkhornResult& r;
+  double firstError = -1.0;
+  bool converged = false, cancelled = false;
+
+  bool running() const { return !converged && !cancelled; }
+  /// False when the loop must stop here (converged, out of budget, or asked to stop).
+  bool proceed(int stage, bool last) {
+    if (last && firstError < 0) firstError = r.marginalError;
+    if (last && r.marginalError <= o.tolerance) converged = true;
+    else if (r.iterations >= o.maxIterations) return false;
+    else if (control && control->shouldStop(progressOf(stage, r.stages, firstError, r.marginalError, o.tolerance)))
+      cancelled = true;
+    return running();
+  }
+  /// An annealing stage ends once loosely converged or after its few iterations.
+  bool stageEnds(bool last, int stageIteration) const {
+    return !last && (r.marginalError <= o.stageTolerance || stageIteration + 1 >= o.stageIterations);
+  }
+};
+
+std::string errorText(double e) {
+  std::ostringstream s;
+  s.precision(3);
+  s << e;
+  return s.str();
+}
+
+// Finishes a result: status and message from how the loop ended.
+void finish(SinkhornResult& r, bool converged, bool cancelled, const SinkhornOptions& o) {
+  if (cancelled) {
+    r.status = SinkhornStatus::Cancelled;
+    r.message = "cancelled after " + std::to_string(r.iterations) + " iterations";
+  } else if (converged) {
+    r.status = SinkhornStatus::Converged;
+    r.message.clear();
+  } else {
+    r.status = SinkhornStatus::MaxIterations;
+    r.message = "not converged: marginal error " + errorText(r.marginalError) + " > tolerance " +
+                errorText(o.tolerance) + " after " + std::to_string(r.iterations) +
+                " iterations (raise max_iterations or ε)";
+  }
+}
+
+// Owns a team when the caller gave none.
+struct Team {
+  std::unique_ptr<RowWorkers> own;
+  RowWorkers* use;
+  explicit Team(RowWorkers* given) : use(given) {
+    if (!use) {
+      own = std::make_unique<RowWorkers>();
+      use = own.get();
+    }
+  }
+};
+
+}  // namespace
+
+std::string checkSinkhornOptions(const SinkhornOptions& o) {
+  if (!(o.epsilon > 0) || !std::isfinite(o.epsilon)) return "epsilon must be a finite number > 0";
+  if (o.p != 1 && o.p != 2) return "p must be 1 or 2";
+  if (o.maxIterations < 1) return "max_iterations must be >= 1";
+  if (!(o.tolerance > 0)) return "tolerance must be > 0";
+  if (!(o.scalingFactor > 0 && o.scalingFactor < 1)) return "scaling factor must be in (0, 1)";
+  if (o.stageIterations < 1) return "stage iterations must be >= 1";
+  return {};
+}
+
+SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& aIn,
+                             const Eigen::MatrixX2d& y, const Eigen::VectorXd& bIn,
+                             const SinkhornOptions& o, const RunControl* control,
+                             const SinkhornStart* start, kernel::RowWorkers* workers) {
+  SinkhornResult r;
+  for (const std::string& e : {checkCloud("A", x, aIn), checkCloud("B", y, bIn), checkSinkhornOptions(o)}) {
+    if (!e.empty()) {
+      r.message = e;
+      return r;
+    }
+  }
+  const int n = int(x.rows()), m = int(y.rows());
+  const Eigen::VectorXd a = aIn / aIn.sum(), b = bIn / bIn.sum();
+  Team team(workers);
+  if (n == m && x == y && a == b) {
+    // One measure on both sides: the plan is near the identity and each matched pair's f/g
+    // split is almost free, which alternating updates explore very slowly (measured: marginal
+    // error ~1/k); the symmetric update has no split to find.
+    Eigen::VectorXd mid;
+    if (start && start->f && start->g && start->f->size() == n && start->g->size() == n)
+      mid = 0.5 * (*start->f + *start->g);
+    SinkhornResult same = solveSinkhornSymmetric(x, a, o, control, mid.size() ? &mid : nullptr, team.use);
+    same.g = same.f;
+    return same;
+  }
+  const std::vector<double> logA = kernel::paddedLogWeights(a), logB = kernel::paddedLogWeights(b);
+
+  r.f = Eigen::VectorXd::Zero(n);
+  r.g = Eigen::VectorXd::Zero(m);
+  r.warmStarted = start && start->f && start->g && start->f->size() == n && start->g->size() == m &&
+                  start->f->allFinite() && start->g->allFinite();
+  if (r.warmStarted) {
+    r.f = *start->f;
+    r.g = *start->g;
+  }
+  SinkhornOptions run = o;
+  if (r.warmStarted) run.epsilonScaling = false;
+  const std::vector<double> eps = schedule(run, extentOf(x, y));
+  r.stages = int(eps.size());
+
+  std::vector<double> guessF(n), guessG(m), out(std::max(n, m)), ratio(n);
+  LoopControl loop{o, control, r};
+  double mass = 1.0, e = eps.back();
+  SinkhornRelaxation relax;
+  Eigen::VectorXd lastF, lastG;  // the state before the last (relaxed) update
+  for (int s = 0; s < int(eps.size()) && loop.running(); ++s) {
+    e = eps[s];
+    const bool last = s + 1 == int(eps.size());
+    const double scale = kernel::scaleFor(o.p, e);
+    const ScaledPoints xs(x, scale), ys(y, scale);
+    std::vector<double> hB(logB.size()), hA(logA.size());
+    for (int stageIt = 0;; ++stageIt) {
+      // f half-step; its row sums measure the current plan's row marginals.
+      for (std::size_t j = 0; j < hB.size(); ++j) hB[j] = (j < std::size_t(m) ? r.g(j) / e : 0.0) + logB[j];
+      for (int i = 0; i < n; ++i) guessF[i] = -r.f(i) / e;
+      kernel::logSumExpRows(xs, ys, hB, o.p, guessF.data(), out.data(), ratio.data(), *team.use);
+      measureMarginals(a, ratio, &r.marginalError, &mass);
+      if (last && !relax.accept(r.marginalError, a.dot(r.f) + b.dot(r.g) - e * (mass - 1.0))) {
+        r.f = lastF;  // the relaxed step overshot: back to the state before it, plain steps on
+        r.g = lastG;
+        continue;
+      }
+      if (!loop.proceed(s, last)) break;
+      const double w = last && o.overRelaxation ? relax.omega() : 1.0;
+      if (w != 1.0) {
+        lastF = r.f;
+        lastG = r.g;
+      }
+      for (int i = 0; i < n; ++i) r.f(i) = (1.0 - w) * r.f(i) - w * e * out[i];
+      // g half-step: columns become exact (up to the relaxation).
+      for (std::size_t i = 0; i < hA.size(); ++i) hA[i] = (i < std::size_t(n) ? r.f(i) / e : 0.0) + logA[i];
+      for (int j = 0; j < m; ++j) guessG[j] = -r.g(j) / e;
+      kernel::logSumExpRows(ys, xs, hA, o.p, guessG.data(), out.data(), nullptr, *team.use);
+      for (int j = 0; j < m; ++j) r.g(j) = (1.0 - w) * r.g(j) - w * e * out[j];
+      ++r.iterations;
+      if (loop.stageEnds(last, stageIt)) break;
+    }
+  }
+  // Dual objective at the current (f, g); the mass term vanishes when the columns are exact.
+  r.value = a.dot(r.f) + b.dot(r.g) - (std::isfinite(mass) ? e * (mass - 1.0) : 0.0);
+  finish(r, loop.converged, loop.cancelled, o);
+  return r;
+}
+
+SinkhornResult solveSinkhornSymmetric(const Eigen::MatrixX2d& x, const Eigen::VectorXd& aIn,
+                                      const SinkhornOptions& o, const RunControl* control,
+                                      const Eigen::VectorXd* startF, kernel::RowWorkers* workers) {
+  SinkhornResult r;
+  for (const std::string& e : {checkCloud("cloud", x, aIn), checkSinkhornOptions(o)}) {
+    if (!e.empty()) {
+      r.message = e;
+      return r;
+    }
+  }
+  const int n = int(x.rows());
+  const Eigen::VectorXd a = aIn / aIn.sum();
+  const std::vector<double> logA = kernel::paddedLogWeights(a);
+  Team team(workers);
+
+  r.f = Eigen::VectorXd::Zero(n);
+  r.warmStarted = startF && startF->size() == n && startF->allFinite();
+  if (r.warmStarted) r.f = *startF;
+  SinkhornOptions run = o;
+  if (r.warmStarted) run.epsilonScaling = false;
+  const std::vector<double> eps = schedule(run, extentOf(x, x));
+  r.stages = int(eps.size());
+
+  std::vector<double> h(logA.size()), guess(n), out(n), ratio(n);
+  LoopControl loop{o, control, r};
+  double mass = 1.0, e = eps.back();
+  for (int s = 0; s < int(eps.size()) && loop.running(); ++s) {
+    e = eps[s];
+    const bool last = s + 1 == int(eps.size());
+    const ScaledPoints xs(x, kernel::scaleFor(o.p, e));
+    for (int stageIt = 0;; ++stageIt) {
+      for (std::size_t i = 0; i < h.size(); ++i) h[i] = (i < std::size_t(n) ? r.f(i) / e : 0.0) + logA[i];
+      for (int i = 0; i < n; ++i) guess[i] = -r.f(i) / e;
+      kernel::logSumExpRows(xs, xs, h, o.p, guess.data(), out.data(), ratio.data(), *team.use);
+      measureMarginals(a, ratio, &r.marginalError, &mass);
+      if (!loop.proceed(s, last)) break;
+      // Averaged update: the plain one oscillates on the symmetric problem.
+      for (int i = 0; i < n; ++i) r.f(i) = 0.5 * (r.f(i) - e * out[i]);
+      ++r.iterations;
+      if (loop.stageEnds(last, stageIt)) break;
+    }
+  }
+  // Dual objective at (f, f): 2⟨a,f⟩ − ε(mass of the plan − 1), exact for the current f.
+  r.value = 2.0 * a.dot(r.f) - (std::isfinite(mass) ? e * (mass - 1.0) : 0.0);
+  finish(r, loop.converged, loop.cancelled, o);
+  return r;
+}
+
+}  // namespace barrow
