@@ -3,6 +3,7 @@
 
 #include <atomic>
 #include <condition_variable>
+#include <cstdint>
 #include <functional>
 #include <mutex>
 #include <thread>
@@ -12,8 +13,9 @@ namespace barrow::kernel {
 
 /// Runs `fn(begin, end)` over [0, rows) in chunks, on the calling thread plus `threads - 1`
 /// helpers that live as long as the object (a solve creates one and reuses it every pass,
-/// so a pass costs one wake-up, not a thread start). Chunks are handed out dynamically, so a
-/// core busy with other work simply takes fewer of them. Not reentrant: one run at a time.
+/// so a pass costs one wake-up, not a thread start). Chunks are claimed dynamically, and the
+/// caller waits only for chunks a helper actually took: on a loaded machine a helper that
+/// wakes late finds the work done and the caller never waits for it. Not reentrant.
 class RowWorkers {
  public:
   /// threads <= 0: one per hardware thread.
@@ -30,19 +32,22 @@ class RowWorkers {
 
  private:
   void helperLoop();
-  void drain();
+  // Claims and runs chunks of job `generation` until none is left.
+  void drain(std::uint32_t generation, const std::function<void(int, int)>& fn, int rows, int grain);
 
   std::vector<std::thread> helpers_;
   std::mutex mutex_;
   std::condition_variable wake_;
   std::condition_variable done_;
+  // The current job, read under mutex_ by a waking helper.
   const std::function<void(int, int)>* job_ = nullptr;
   int rows_ = 0;
   int grain_ = 1;
-  std::atomic<int> next_{0};
-  unsigned long generation_ = 0;
-  int busy_ = 0;
+  std::uint32_t generation_ = 0;
   bool stop_ = false;
+  // (generation << 32) | next row: a claim succeeds only for the job it was meant for.
+  std::atomic<std::uint64_t> claim_{0};
+  std::atomic<int> completed_{0};  // rows finished in the current job
 };
 
 }  // namespace barrow::kernel

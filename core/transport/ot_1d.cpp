@@ -2,21 +2,21 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numeric>
 
 namespace barrow {
 
 namespace {
 
-// Indices sorted by value, and cumulative normalised weights along that order; the last
-// entry is set to exactly 1 so that both walks end together.
-void sortedCdf(const double* v, const double* w, int n, std::vector<int>& idx, std::vector<double>& cdf) {
-  idx.resize(n);
-  std::iota(idx.begin(), idx.end(), 0);
-  std::sort(idx.begin(), idx.end(), [v](int s, int t) { return v[s] < v[t]; });
+// Atoms sorted by value, and cumulative normalised weights along that order; the last entry
+// is set to exactly 1 so that both walks end together.
+template <class Atom>
+void sortedCdf(const double* v, const double* w, int n, std::vector<Atom>& atoms, std::vector<double>& cdf) {
+  atoms.resize(n);
+  for (int k = 0; k < n; ++k) atoms[k] = {v[k], k};
+  std::sort(atoms.begin(), atoms.end(), [](const Atom& s, const Atom& t) { return s.value < t.value; });
   cdf.resize(n);
   double total = 0.0;
-  for (int k = 0; k < n; ++k) cdf[k] = (total += w[idx[k]]);
+  for (int k = 0; k < n; ++k) cdf[k] = (total += w[atoms[k].index]);
   for (int k = 0; k < n; ++k) cdf[k] /= total;
   cdf[n - 1] = 1.0;
 }
@@ -32,8 +32,8 @@ inline double costOf(double d, double p) {
 
 double Ot1dSolver::solve(const double* x, const double* a, int n, const double* y, const double* b, int m,
                          double p, std::vector<PlanEntry>* coupling) {
-  sortedCdf(x, a, n, ix_, cx_);
-  sortedCdf(y, b, m, iy_, cy_);
+  sortedCdf(x, a, n, sx_, cx_);
+  sortedCdf(y, b, m, sy_, cy_);
   if (coupling) coupling->clear();
   // Walk the merged breakpoints of the two CDFs; each interval (t, next] pairs one x-atom
   // with one y-atom.
@@ -43,8 +43,8 @@ double Ot1dSolver::solve(const double* x, const double* a, int n, const double* 
     const double next = std::min(cx_[i], cy_[j]);
     const double mass = next - t;
     if (mass > 0) {
-      cost += mass * costOf(x[ix_[i]] - y[iy_[j]], p);
-      if (coupling) coupling->push_back({ix_[i], iy_[j], mass});
+      cost += mass * costOf(sx_[i].value - sy_[j].value, p);
+      if (coupling) coupling->push_back({sx_[i].index, sy_[j].index, mass});
       t = next;
     }
     if (cx_[i] <= next) ++i;

@@ -29,7 +29,11 @@ class Ot1dSolver {
                double p, std::vector<PlanEntry>* coupling = nullptr);
 
  private:
-  std::vector<int> ix_, iy_;
+  struct Atom {
+    double value;
+    int index;
+  };
+  std::vector<Atom> sx_, sy_;  // atoms sorted by value (contiguous: faster than sorting indices)
   std::vector<double> cx_, cy_;
 };
 
