@@ -11,8 +11,14 @@ namespace barrow {
 TransportCertificate certifyTransport(const Cloud& a, const Cloud& b, double p, const std::vector<PlanEntry>& plan,
                                       const Eigen::VectorXd& u, const Eigen::VectorXd& v) {
   TransportCertificate t;
-  if (u.size() != a.size() || v.size() != b.size()) return t;
+  t.n = a.size();
+  t.m = b.size();
+  if (u.size() != a.size() || v.size() != b.size() || a.empty() || b.empty()) return t;
   const GroundCost cost(p);
+  Eigen::MatrixX2d all(a.size() + b.size(), 2);
+  all << a.points, b.points;
+  const Eigen::RowVector2d lo = all.colwise().minCoeff(), hi = all.colwise().maxCoeff();
+  t.costScale = cost(lo(0), lo(1), hi(0), hi(1));
   auto c = [&](int i, int j) { return cost(a.points(i, 0), a.points(i, 1), b.points(j, 0), b.points(j, 1)); };
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
   Eigen::VectorXd rows = Eigen::VectorXd::Zero(a.size()), cols = Eigen::VectorXd::Zero(b.size());
@@ -44,8 +50,8 @@ TransportCertificate certifyTransport(const Cloud& a, const Cloud& b, double p, 
   return t;
 }
 
-std::string certificateFailure(const TransportCertificate& t, Eigen::Index n, Eigen::Index m, double costScale,
-                               double relTol) {
+std::string certificateFailure(const TransportCertificate& t, double relTol) {
+  const double costScale = t.costScale;
   auto say = [](const char* what, double got, double limit) {
     char buf[128];
     std::snprintf(buf, sizeof buf, "%s %.3g exceeds %.3g", what, got, limit);
@@ -57,7 +63,7 @@ std::string certificateFailure(const TransportCertificate& t, Eigen::Index n, Ei
   if (t.slackness > 10 * relTol * costScale) return say("slackness", t.slackness, 10 * relTol * costScale);
   const double gap = std::abs(t.primal - t.dual);
   if (gap > 10 * relTol * costScale) return say("duality gap", gap, 10 * relTol * costScale);
-  if (t.support > n + m - 1) return "support of " + std::to_string(t.support) + " exceeds n + m - 1";
+  if (t.support > t.n + t.m - 1) return "support of " + std::to_string(t.support) + " exceeds n + m - 1";
   return {};
 }
 

@@ -24,6 +24,8 @@ struct TransportCertificate {
   double primal = 0.0;              // Σ π_ij c_ij
   double dual = 0.0;                // Σ a_i u_i + Σ b_j v_j
   int support = 0;                  // entries with positive mass
+  Eigen::Index n = 0, m = 0;        // sizes of A and B
+  double costScale = 0.0;           // (bounding-box diagonal of all points)^p
 };
 
 /// Weights are normalised; cost c = ‖x − y‖^p. u, v must have one entry per row.
@@ -33,7 +35,6 @@ TransportCertificate certifyTransport(const Cloud& a, const Cloud& b, double p, 
 /// Empty when the certificate holds: marginals within relTol of each weight, dual
 /// violation within relTol·costScale, slackness and |primal − dual| within 10·relTol·costScale,
 /// support at most n + m − 1 (a basic solution). Otherwise the first failure, in words.
-std::string certificateFailure(const TransportCertificate& t, Eigen::Index n, Eigen::Index m, double costScale,
-                               double relTol = 1e-12);
+std::string certificateFailure(const TransportCertificate& t, double relTol = 1e-12);
 
 }  // namespace barrow

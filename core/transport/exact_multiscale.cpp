@@ -75,6 +75,7 @@ void members(const std::vector<int>& group, int groups, std::vector<int>* start,
 CoarseProblem coarsen(const ExactProblem& fine, int groupSize) {
   CoarseProblem c;
   c.problem.cost = fine.cost;
+  c.problem.total = fine.total;
   const int ga = splitGroups(fine.ax, fine.ay, groupSize, &c.groupA);
   const int gb = splitGroups(fine.bx, fine.by, groupSize, &c.groupB);
   gather(fine.ax, fine.ay, fine.massA, c.groupA, ga, &c.problem.ax, &c.problem.ay, &c.problem.massA);

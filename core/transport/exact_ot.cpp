@@ -226,7 +226,7 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
     const auto [i, j] = out.arcs[std::size_t(f.arc)];
     ++basicPerRow[std::size_t(i)];
     if (f.flow == 0) continue;
-    const double mass = double(f.flow) / double(kMassTotal);
+    const double mass = double(f.flow) / double(pr.total);
     const int ri = pr.rowA[std::size_t(i)], rj = pr.rowB[std::size_t(j)];
     r.plan.push_back({ri, rj, mass});
     cost += mass * pr.c(i, j);

@@ -6,14 +6,14 @@
 
 namespace barrow {
 
-std::vector<std::int64_t> quantizeMasses(const Eigen::VectorXd& w) {
+std::vector<std::int64_t> quantizeMasses(const Eigen::VectorXd& w, std::int64_t target) {
   const long double total = w.sum();
   std::vector<std::int64_t> q(std::size_t(w.size()), 0);
   std::vector<int> positive;
   std::int64_t sum = 0;
   for (Eigen::Index i = 0; i < w.size(); ++i) {
     if (!(w(i) > 0)) continue;
-    const long double share = (long double)w(i) / total * (long double)kMassTotal;
+    const long double share = (long double)w(i) / total * (long double)target;
     q[std::size_t(i)] = std::max<std::int64_t>(1, std::llround(share));
     sum += q[std::size_t(i)];
     positive.push_back(int(i));
@@ -21,7 +21,7 @@ std::vector<std::int64_t> quantizeMasses(const Eigen::VectorXd& w) {
   // The rounding residue (a few units per point at most) goes to the largest masses, one
   // unit each in turn, so no mass changes by more than a few parts in 2^60 of the total.
   std::stable_sort(positive.begin(), positive.end(), [&](int x, int y) { return q[std::size_t(x)] > q[std::size_t(y)]; });
-  std::int64_t residue = kMassTotal - sum;
+  std::int64_t residue = target - sum;
   const std::int64_t step = residue > 0 ? 1 : -1;
   for (std::size_t t = 0; residue != 0; t = (t + 1) % positive.size()) {
     q[std::size_t(positive[t])] += step;
@@ -33,9 +33,12 @@ std::vector<std::int64_t> quantizeMasses(const Eigen::VectorXd& w) {
 ExactProblem makeExactProblem(const Cloud& a, const Cloud& b, double p) {
   ExactProblem pr;
   pr.cost = GroundCost(p);
-  auto take = [](const Cloud& c, Eigen::ArrayXd& x, Eigen::ArrayXd& y, std::vector<std::int64_t>& mass,
-                 std::vector<int>& rows) {
-    const auto all = quantizeMasses(c.weights);
+  const std::int64_t na = (a.weights.array() > 0).count(), nb = (b.weights.array() > 0).count();
+  const std::int64_t common = std::lcm(na, nb);
+  pr.total = common <= (std::int64_t(1) << 40) ? kMassTotal / common * common : kMassTotal;
+  auto take = [&pr](const Cloud& c, Eigen::ArrayXd& x, Eigen::ArrayXd& y, std::vector<std::int64_t>& mass,
+                    std::vector<int>& rows) {
+    const auto all = quantizeMasses(c.weights, pr.total);
     for (Eigen::Index i = 0; i < c.size(); ++i)
       if (all[std::size_t(i)] > 0) rows.push_back(int(i));
     x.resize(Eigen::Index(rows.size()));
