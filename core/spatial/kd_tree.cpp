@@ -59,7 +59,9 @@ Eigen::Index KdTree::build(Eigen::Index begin, Eigen::Index end) {
   return id;
 }
 
-// Depth-first search, nearer child first, pruning boxes farther than bound2 (squared).
+// Depth-first search, nearer child first, pruning boxes that cannot hold a point strictly
+// closer than bound2 (squared). Pruning at equality matters: a query onto many coincident
+// points would otherwise visit every one of them.
 // `visit(d2, t)` sees each candidate point at tree position t and may lower bound2.
 template <class Visit>
 void KdTree::search(const Eigen::Vector2d& q, double& bound2, Visit&& visit) const {
@@ -74,7 +76,7 @@ void KdTree::search(const Eigen::Vector2d& q, double& bound2, Visit&& visit) con
   stack[top++] = 0;
   while (top > 0) {
     const Node& nd = nodes_[std::size_t(stack[--top])];
-    if (boxDist2(nd) > bound2) continue;
+    if (boxDist2(nd) >= bound2) continue;
     if (nd.left < 0) {
       for (Eigen::Index t = nd.begin; t < nd.end; ++t) {
         const double dx = x_[std::size_t(t)] - q.x(), dy = y_[std::size_t(t)] - q.y();
@@ -101,7 +103,7 @@ std::pair<double, Eigen::Index> KdTree::nearest(const Eigen::Vector2d& q, Eigen:
   search(q, best2, [&](double d2, Eigen::Index t) {
     const Eigen::Index i = index_[std::size_t(t)];
     if (i == exclude) return;
-    if (d2 < best2 || (d2 == best2 && i < best)) {
+    if (d2 < best2) {
       best2 = d2;
       best = i;
     }

@@ -17,10 +17,11 @@ class KdTree {
   Eigen::Index size() const { return Eigen::Index(index_.size()); }
 
   /// Nearest point to q, skipping index `exclude` (-1: none): (distance, index).
-  /// Ties are broken by the smaller index. Pre: the tree has a point other than `exclude`.
+  /// Among tied points any one may be returned. Pre: the tree has a point other than `exclude`.
   std::pair<double, Eigen::Index> nearest(const Eigen::Vector2d& q, Eigen::Index exclude = -1) const;
 
-  /// The k nearest points to q, closest first (ties by smaller index), skipping `exclude`.
+  /// The k nearest points to q, closest first (which of several tied points is arbitrary),
+  /// skipping `exclude`.
   /// Returns fewer than k when the tree has fewer points.
   std::vector<std::pair<double, Eigen::Index>> knn(const Eigen::Vector2d& q, int k,
                                                    Eigen::Index exclude = -1) const;
