@@ -24,11 +24,15 @@ void CloudLayer::setStyle(const QColor& color, MarkerShape shape, double baseSiz
   color_ = color;
   shape_ = shape;
   baseSize_ = baseSize;
+  sprites_.clear();
 }
 
 void CloudLayer::setSelectedPoints(const std::vector<bool>& selected) { selected_ = selected; }
 void CloudLayer::setHighlighted(int index) { highlighted_ = index; }
-void CloudLayer::setHollow(bool hollow) { hollow_ = hollow; }
+void CloudLayer::setHollow(bool hollow) {
+  hollow_ = hollow;
+  sprites_.clear();
+}
 
 double CloudLayer::markerSize(Eigen::Index i) const {
   // Area proportional to the share of mass: diameter ∝ sqrt(share). Clamped so that a
@@ -72,7 +76,30 @@ QCPRange CloudLayer::getValueRange(bool& foundRange, QCP::SignDomain, const QCPR
   return QCPRange(points_.col(1).minCoeff(), points_.col(1).maxCoeff());
 }
 
-void CloudLayer::drawMarker(QCPPainter* painter, const QPointF& c, double size) const {
+const QPixmap& CloudLayer::markerPixmap(double size, double dpr) {
+  if (dpr != spriteDpr_) {
+    sprites_.clear();
+    spriteDpr_ = dpr;
+  }
+  const int key = int(std::lround(size * 4));
+  auto it = sprites_.find(key);
+  if (it != sprites_.end()) return it->second;
+  const double s = key / 4.0;
+  const int side = int(std::ceil(s * 1.5 + 4));
+  QPixmap pm(int(std::ceil(side * dpr)), int(std::ceil(side * dpr)));
+  pm.setDevicePixelRatio(dpr);
+  pm.fill(Qt::transparent);
+  QPainter p(&pm);
+  p.setRenderHint(QPainter::Antialiasing);
+  QColor fill = color_;
+  fill.setAlphaF(hollow_ ? 0.0 : 0.78);
+  p.setPen(QPen(hollow_ ? color_ : color_.darker(135), hollow_ ? 1.2 : 0.8));
+  p.setBrush(hollow_ ? Qt::NoBrush : QBrush(fill));
+  drawMarker(&p, QPointF(side / 2.0, side / 2.0), s);
+  return sprites_.emplace(key, pm).first->second;
+}
+
+void CloudLayer::drawMarker(QPainter* painter, const QPointF& c, double size) const {
   const double r = size / 2;
   switch (shape_) {
     case MarkerShape::Disc:
@@ -106,10 +133,21 @@ void CloudLayer::draw(QCPPainter* painter) {
   const QPen outline(hollow_ ? color_ : color_.darker(135), hollow_ ? 1.2 : 0.8);
   painter->setPen(outline);
   painter->setBrush(hollow_ ? Qt::NoBrush : QBrush(fill));
+  // On screen, stamp pre-rendered markers (several times faster for thousands of points);
+  // in vector exports (PDF, SVG) draw real shapes.
+  const bool vector = painter->modes().testFlag(QCPPainter::pmVectorized) ||
+                      painter->modes().testFlag(QCPPainter::pmNoCaching);
+  const double dpr = painter->device() ? painter->device()->devicePixelRatioF() : 1.0;
   for (Eigen::Index i = 0; i < points_.rows(); ++i) {
     const QPointF p = coordsToPixels(points_(i, 0), points_(i, 1));
     if (!clip.contains(p)) continue;
-    drawMarker(painter, p, markerSize(i));
+    if (vector) {
+      drawMarker(painter, p, markerSize(i));
+    } else {
+      const QPixmap& pm = markerPixmap(markerSize(i), dpr);
+      const double half = pm.width() / pm.devicePixelRatio() / 2.0;
+      painter->drawPixmap(QPointF(p.x() - half, p.y() - half), pm);
+    }
   }
   // Selection and hover rings on top, so they are never hidden under other markers.
   painter->setBrush(Qt::NoBrush);

@@ -7,6 +7,7 @@
 #include <Eigen/Core>
 #include <QColor>
 #include <qcustomplot.h>
+#include <map>
 #include <vector>
 
 namespace barrow::ui {
@@ -27,6 +28,7 @@ class CloudLayer : public QCPAbstractPlottable {
   void setHollow(bool hollow);
 
   Eigen::Index pointCount() const { return points_.rows(); }
+  const Eigen::MatrixX2d& points() const { return points_; }
   /// Index of the point nearest to pixel `pos` within `radiusPx`, or -1.
   int pointAt(const QPointF& pos, double radiusPx) const;
   /// Marker diameter in pixels for point i.
@@ -42,7 +44,9 @@ class CloudLayer : public QCPAbstractPlottable {
   void drawLegendIcon(QCPPainter* painter, const QRectF& rect) const override;
 
  private:
-  void drawMarker(QCPPainter* painter, const QPointF& c, double size) const;
+  void drawMarker(QPainter* painter, const QPointF& c, double size) const;
+  /// A pre-rendered marker of this diameter (screen drawing; vector exports draw shapes).
+  const QPixmap& markerPixmap(double size, double dpr);
 
   Eigen::MatrixX2d points_;
   Eigen::VectorXd share_;  // weight × n / total: 1 for uniform weights
@@ -52,6 +56,8 @@ class CloudLayer : public QCPAbstractPlottable {
   MarkerShape shape_ = MarkerShape::Disc;
   double baseSize_ = 7;
   bool hollow_ = false;
+  std::map<int, QPixmap> sprites_;  // by diameter in quarter pixels
+  double spriteDpr_ = 0;
 };
 
 }  // namespace barrow::ui

@@ -102,6 +102,7 @@ void FieldView::setClouds(const Cloud& a, const Cloud& b) {
 }
 
 void FieldView::setGhost(const std::optional<Cloud>& a0) {
+  if (!a0 && !ghost_->visible()) return;
   ghost_->setVisible(a0.has_value());
   if (a0) ghost_->setData(a0->points, a0->weights);
   refresh();
@@ -221,12 +222,12 @@ GridSpec FieldView::potentialGrid() const {
 }
 
 void FieldView::setPotential(const Eigen::MatrixXd& values, const GridSpec& grid) {
-  if (values.rows() != grid.nx || values.cols() != grid.ny) return;
+  if (values.rows() != grid.ny || values.cols() != grid.nx) return;  // row = y, column = x
   heat_->data()->setSize(grid.nx, grid.ny);
   heat_->data()->setRange(QCPRange(grid.x0, grid.x0 + (grid.nx - 1) * grid.dx),
                           QCPRange(grid.y0, grid.y0 + (grid.ny - 1) * grid.dy));
   for (int i = 0; i < grid.nx; ++i)
-    for (int j = 0; j < grid.ny; ++j) heat_->data()->setCell(i, j, values(i, j));
+    for (int j = 0; j < grid.ny; ++j) heat_->data()->setCell(i, j, values(j, i));
   heat_->rescaleDataRange(true);
   heat_->setVisible(true);
   if (!scale_->visible()) {
@@ -265,6 +266,7 @@ void FieldView::setHover(Which w, int index) {
 }
 
 void FieldView::setReadout(const QString& text) { readout_->setText(text); }
+QString FieldView::readout() const { return readout_->text(); }
 
 QString FieldView::describePoint(Which w, int index) const {
   const Cloud& c = w == Which::A ? a_ : b_;

@@ -45,6 +45,7 @@ class FieldView : public QWidget {
   void setPlanThreshold(double fraction);
   /// Points x_t = (1−t)x_i + t y_j carrying mass π_ij, from the exact plan (McCann 1997).
   void setInterpolation(bool shown, double t);
+  /// Values on the grid's cell centres: ny rows (y index) × nx columns (x index).
   void setPotential(const Eigen::MatrixXd& values, const GridSpec& grid);
   void clearPotential();
   /// The grid the potential map is computed on: the clouds' bounding box, padded.
@@ -61,10 +62,13 @@ class FieldView : public QWidget {
   CloudLayer* layer(Which w) const;
   const SegmentLayer* exactLayer() const { return exact_; }
   const SegmentLayer* entropicLayer() const { return entropic_; }
+  const CloudLayer* interpolationLayer() const { return interp_; }
+  QCPColorMap* heatMap() const { return heat_; }
   /// Number of interpolated points currently drawn (0 when hidden).
   Eigen::Index interpolationCount() const;
   bool potentialShown() const;
 
+  QString readout() const;
   /// Text describing the plan around a point (hover read-out).
   QString describePoint(Which w, int index) const;
 

@@ -207,6 +207,7 @@ void LiveEvaluator::run(quint64 id, const LiveRequest& req,
   deliver(std::move(first));
   if (slow.empty() && !potentialLater) return;
 
+  if (req.interactive && newerRequestWithin(req.slowDelayMs)) return;
   std::vector<std::string> left;
   for (const Measure* m : slow) left.push_back(m->id());
   for (const Measure* m : slow) {
@@ -242,6 +243,11 @@ void LiveEvaluator::run(quint64 id, const LiveRequest& req,
   if (stopSlow_) return;
   u.secondsSinceSubmit = since(t0);
   deliver(std::move(u));
+}
+
+bool LiveEvaluator::newerRequestWithin(int ms) {
+  std::unique_lock<std::mutex> lock(mutex_);
+  return wake_.wait_for(lock, std::chrono::milliseconds(ms), [this] { return quit_ || pending_.has_value(); });
 }
 
 void LiveEvaluator::deliver(LiveUpdate u) {

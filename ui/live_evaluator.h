@@ -44,6 +44,11 @@ struct LiveRequest {
   std::string planId;                 // measure whose plan is drawn ("w2", "w1", "" = none)
   bool entropicPlan = false;          // also the plan of the "entropic" measure
   std::optional<GridSpec> potential;  // W1 potential heat map on this grid
+  /// Part of a continuous gesture (a drag): slow work starts only once no newer request
+  /// came for `slowDelayMs`, so it neither competes for the cores nor delays the next
+  /// cheap update while the pointer moves.
+  bool interactive = false;
+  int slowDelayMs = 150;
 };
 
 struct LiveItem {
@@ -59,7 +64,7 @@ struct LiveUpdate {
   std::vector<std::string> pending;   // ids still being computed for this request
   bool final = false;                 // nothing more will come for this request
   double secondsSinceSubmit = 0;
-  std::optional<Eigen::MatrixXd> potential;  // (nx x ny) values on request's grid
+  std::optional<Eigen::MatrixXd> potential;  // ny × nx values on the request's grid (row = y)
   std::optional<GridSpec> grid;
   std::string potentialMessage;       // why there is no potential map, if asked for
   std::optional<Cloud> shownA;        // first update only: the A the values and plans refer to
@@ -87,6 +92,8 @@ class LiveEvaluator : public QObject {
   void loop();
   void run(quint64 id, const LiveRequest& req, std::chrono::steady_clock::time_point t0);
   void deliver(LiveUpdate u);
+  /// Waits up to `ms` for a newer request; true when one arrived (or on shutdown).
+  bool newerRequestWithin(int ms);
   Result evaluateOne(const Measure& m, const Cloud& a, const Cloud& b, const ParamSet& params,
                      bool wantPlan, const RunControl* control, bool useWarm);
   std::optional<Result> referenceOf(const Measure& m, const std::optional<Cloud>& refA,

@@ -44,7 +44,15 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
                          QAbstractItemView::EditKeyPressed);
   tree_->header()->setStretchLastSection(false);
   tree_->header()->setSectionResizeMode(kName, QHeaderView::Stretch);
-  for (int c = kValue; c < kColumns; ++c) tree_->header()->setSectionResizeMode(c, QHeaderView::ResizeToContents);
+  // Fixed widths from the font: resizing to contents would measure every row on every
+  // update, which is most of the cost of a table refresh while points are dragged.
+  const QFontMetrics fm(font());
+  const int widths[kColumns] = {0, fm.horizontalAdvance("−0.000000e-00"), fm.horizontalAdvance("+0.000000e-00"),
+                                fm.horizontalAdvance("updating…  "), fm.horizontalAdvance("000.0 ms  ")};
+  for (int c = kValue; c < kColumns; ++c) {
+    tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);
+    tree_->header()->resizeSection(c, widths[c]);
+  }
   details_->setObjectName("measureDetails");
   details_->setOpenLinks(false);
   details_->setToolTip(tr("Formula of the selected measure and the settings it used"));

@@ -22,6 +22,7 @@ std::string computePotentialMap(const Cloud& b, const Result& w1, const GridSpec
   if (grid.nx < 1 || grid.ny < 1) return "empty grid";
 #ifdef BARROW_UI_HAVE_KR_POTENTIAL
   *out = krPotentialGrid(b, w1.v, grid.x0, grid.y0, grid.dx, grid.dy, grid.nx, grid.ny);
+  if (out->rows() != grid.ny || out->cols() != grid.nx) return "the potential could not be evaluated on the grid";
   return {};
 #else
   (void)out;

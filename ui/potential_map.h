@@ -13,7 +13,7 @@
 
 namespace barrow::ui {
 
-/// Fills `out` (nx x ny) from the w1 result's potential v. Returns why it cannot (empty on
+/// Fills `out` (ny rows × nx columns, row = y index) from the w1 result's potential v. Returns why it cannot (empty on
 /// success): the engine part is missing, w1 failed, or v does not match B's size.
 std::string computePotentialMap(const Cloud& b, const Result& w1, const GridSpec& grid,
                                 Eigen::MatrixXd* out);

@@ -122,9 +122,15 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   QPen refPen(QColor(110, 110, 110), 1, Qt::DashDotLine);
   refV_ = verticalLine(values_, refPen);
   refS_ = verticalLine(slopes_, refPen);
+  // The cursor has a buffered layer of its own: dragging it repaints that layer only, not
+  // every curve.
+  plot_->addLayer("cursor", plot_->layer("main"), QCustomPlot::limAbove);
+  plot_->layer("cursor")->setMode(QCPLayer::lmBuffered);
   QPen cur(palette::cursor(), 2.2);
   cursorV_ = verticalLine(values_, cur);
   cursorS_ = verticalLine(slopes_, cur);
+  cursorV_->setLayer("cursor");
+  cursorS_->setLayer("cursor");
   cursorV_->setVisible(false);
   cursorS_->setVisible(false);
   clear(tr("Run a sweep to see how each measure responds as A moves."));
@@ -342,7 +348,7 @@ void SweepPlots::setCursor(std::optional<double> theta) {
     placeLine(cursorV_, *theta);
     placeLine(cursorS_, *theta);
   }
-  plot_->replot(QCustomPlot::rpQueuedReplot);
+  plot_->layer("cursor")->replot();
 }
 
 void SweepPlots::placeCursor(double theta, bool notify) {

@@ -51,11 +51,13 @@ bool SweepRunner::available() {
 #endif
 }
 
-SweepRunner::SweepRunner(QObject* parent) : QObject(parent) {}
+SweepRunner::SweepRunner(QObject* parent) : QObject(parent) {
+  pool_.setMaxThreadCount(2);  // a cancelled sweep may still be winding down as the next starts
+}
 
 SweepRunner::~SweepRunner() {
   cancel();
-  if (watcher_) watcher_->waitForFinished();
+  pool_.waitForDone();
 }
 
 void SweepRunner::start(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params) {
@@ -63,8 +65,10 @@ void SweepRunner::start(const Cloud& a, const Cloud& b, const SweepSettings& set
   const quint64 id = ++latest_;
   cancel_ = std::make_shared<std::atomic<bool>>(false);
   auto flag = cancel_;
+  // A pool of our own: Qt's global pool also serves its image routines, which the GUI
+  // thread waits for while painting; a long sweep there would stall the window.
   QFuture<SweepOutcome> future = QtConcurrent::run(
-      [a, b, settings, params, flag](QPromise<SweepOutcome>& promise) {
+      &pool_, [a, b, settings, params, flag](QPromise<SweepOutcome>& promise) {
         promise.setProgressRange(0, 1000);
         promise.addResult(runOne(a, b, settings, params, flag.get(), promise));
       });

@@ -5,6 +5,7 @@
 
 #include <QFutureWatcher>
 #include <QObject>
+#include <QThreadPool>
 #include <atomic>
 #include <memory>
 #include <string>
@@ -46,6 +47,7 @@ class SweepRunner : public QObject {
   bool running_ = false;
   std::shared_ptr<std::atomic<bool>> cancel_;
   QFutureWatcher<SweepOutcome>* watcher_ = nullptr;
+  QThreadPool pool_;
 };
 
 }  // namespace barrow::ui
