@@ -1,14 +1,29 @@
 #include "transport/exact_candidates.h"
 
 #include <algorithm>
+#include <iterator>
 
 #include "spatial/kd_tree.h"
 
 namespace barrow {
 
+// Counting sort on the source, then the few sinks of each source sorted in place.
 void sortUnique(std::vector<std::pair<int, int>>& arcs) {
-  std::sort(arcs.begin(), arcs.end());
-  arcs.erase(std::unique(arcs.begin(), arcs.end()), arcs.end());
+  if (arcs.empty()) return;
+  int sources = 0;
+  for (const auto& a : arcs) sources = std::max(sources, a.first + 1);
+  std::vector<int> start(std::size_t(sources) + 1, 0);
+  for (const auto& a : arcs) ++start[std::size_t(a.first) + 1];
+  for (std::size_t s = 1; s < start.size(); ++s) start[s] += start[s - 1];
+  std::vector<std::pair<int, int>> sorted(arcs.size());
+  std::vector<int> fill(start.begin(), start.end() - 1);
+  for (const auto& a : arcs) sorted[std::size_t(fill[std::size_t(a.first)]++)] = a;
+  arcs.clear();
+  for (int s = 0; s < sources; ++s) {
+    const auto first = sorted.begin() + start[std::size_t(s)], last = sorted.begin() + start[std::size_t(s) + 1];
+    std::sort(first, last);
+    std::unique_copy(first, last, std::back_inserter(arcs));
+  }
 }
 
 std::vector<std::pair<int, int>> nearestNeighbourArcs(const ExactProblem& pr, int k) {

@@ -9,6 +9,7 @@
 #include "transport/exact_multiscale.h"
 #include "transport/exact_pricing.h"
 #include "transport/exact_problem.h"
+#include "transport/exact_site_tree.h"
 #include "transport/exact_warm_state.h"
 #include "transport/network_simplex.h"
 
@@ -19,7 +20,7 @@ std::string checkOptions(const ExactOtOptions& o) {
   if (!std::isfinite(o.p) || o.p < 1.0) return "cost exponent p must be a finite number >= 1";
   if (!(o.tolerance > 0.0 && o.tolerance <= 1e-3)) return "tolerance must lie in (0, 1e-3]";
   if (o.maxPivots < 0) return "pivot limit must be >= 0";
-  if (o.neighbours < 0) return "number of neighbours must be >= 0";
+  if (o.neighbours < 0 || o.warmNeighbours < 0) return "number of neighbours must be >= 0";
   if (o.arcsPerRow < 1) return "arcs added per row must be >= 1";
   if (o.groupSize < 2) return "multiscale group size must be >= 2";
   return {};
@@ -33,6 +34,7 @@ struct LevelOutcome {
   std::vector<std::pair<int, int>> arcs;         // every arc the restricted problems held
   Eigen::ArrayXd u, v;                           // tree potentials at the end
   std::vector<std::pair<int, int>> added;        // arcs found by pricing
+  std::shared_ptr<SiteTree> sinks;               // tree over the sinks, for pricing
   long long pivots = 0, degenerate = 0;
   int rounds = 0;
 };
@@ -57,6 +59,7 @@ LevelOutcome solveLevel(const ExactProblem& pr, std::vector<std::pair<int, int>>
   if (!error->empty()) return out;
 
   std::vector<std::pair<int, int>> violated;
+  out.sinks = std::make_shared<SiteTree>(pr.bx, pr.by, pr.cost);
   out.u.resize(pr.n());
   out.v.resize(pr.m());
   while (true) {
@@ -72,7 +75,7 @@ LevelOutcome solveLevel(const ExactProblem& pr, std::vector<std::pair<int, int>>
       break;
     }
     violated.clear();
-    if (!priceAllPairs(pr, out.u, out.v, tol, o.arcsPerRow, &violated, control, ns.progress())) {
+    if (!priceAllPairs(pr, *out.sinks, out.u, out.v, tol, o.arcsPerRow, &violated, control, ns.progress())) {
       out.status = ExactOtStatus::Cancelled;
       break;
     }
@@ -89,17 +92,30 @@ LevelOutcome solveLevel(const ExactProblem& pr, std::vector<std::pair<int, int>>
   return out;
 }
 
+// `outer` seen through a window: progress f is reported as lo + (hi − lo)·f, so that the
+// levels of a coarse-to-fine solve report one rising fraction.
+RunControl within(const RunControl& outer, double lo, double hi) {
+  RunControl r;
+  r.cancel = outer.cancel;
+  if (outer.onProgress) r.onProgress = [&outer, lo, hi](double f) { return outer.onProgress(lo + (hi - lo) * f); };
+  return r;
+}
+
 // A cold solve: the start comes from a coarse solve of grouped points when the problem is
-// large enough for that to pay, else from the greedy (or north-west) rule on neighbours.
+// large enough for that to pay (it reports the first quarter of the progress), else from
+// the greedy (or north-west) rule on neighbours.
 LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const RunControl* control,
                        long long budget, std::string* error) {
   auto pairs = nearestNeighbourArcs(pr, o.neighbours);
   std::vector<FlowArc> start;
   long long spent = 0, degenerate = 0;
   int rounds = 0;
-  if (o.multiscale && std::min(pr.n(), pr.m()) > o.coarsestSize) {
+  const bool coarseFirst = o.multiscale && std::min(pr.n(), pr.m()) > o.coarsestSize;
+  const RunControl coarseControl = control ? within(*control, 0.0, 0.25) : RunControl{};
+  const RunControl fineControl = control ? within(*control, coarseFirst ? 0.25 : 0.0, 1.0) : RunControl{};
+  if (coarseFirst) {
     const CoarseProblem coarse = coarsen(pr, o.groupSize);
-    const LevelOutcome c = solveCold(coarse.problem, o, control, budget, error);
+    const LevelOutcome c = solveCold(coarse.problem, o, control ? &coarseControl : nullptr, budget, error);
     if (!error->empty() || c.status == ExactOtStatus::Cancelled) return c;
     std::vector<std::pair<int, int>> plan;
     for (const auto& f : c.basis) plan.push_back(c.arcs[std::size_t(f.arc)]);
@@ -112,7 +128,8 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
   }
   for (const auto& f : start) pairs.emplace_back(f.i, f.j);
   sortUnique(pairs);
-  LevelOutcome out = solveLevel(pr, std::move(pairs), start, {}, o, control, std::max(0LL, budget - spent), error);
+  LevelOutcome out = solveLevel(pr, std::move(pairs), start, {}, o, control ? &fineControl : nullptr,
+                                std::max(0LL, budget - spent), error);
   out.pivots += spent;
   out.degenerate += degenerate;
   out.rounds += rounds;
@@ -170,6 +187,7 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   if (auto e = checkOptions(options); !e.empty()) return finish(e);
 
   const ExactProblem pr = makeExactProblem(a, b, options.p);
+  if (!std::isfinite(pr.scale())) return finish("the points span too wide a range: costs overflow double precision");
   const double tol = options.tolerance * pr.scale();
   const auto massA = perRow(pr.massA, pr.rowA, a.size()), massB = perRow(pr.massB, pr.rowB, b.size());
 
@@ -182,7 +200,7 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   std::vector<std::pair<int, int>> pairs;
   if (ws && ws->p == options.p && ws->massA == massA && ws->massB == massB &&
       warmStart(*ws, pr, a.size(), b.size(), &basis, &roots, &pairs)) {
-    const auto near = nearestNeighbourArcs(pr, options.neighbours);
+    const auto near = nearestNeighbourArcs(pr, options.warmNeighbours);
     pairs.insert(pairs.end(), near.begin(), near.end());
     for (const auto& f : basis) pairs.emplace_back(f.i, f.j);
     sortUnique(pairs);
@@ -205,13 +223,14 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   // points of zero weight get the c-transform too (A against B, then B against all of A).
   std::vector<int> ties;
   Eigen::ArrayXd uActive;
-  cTransformSources(pr, out.v, 4.0 * tol, &uActive, &ties);
+  SiteTree& sinks = *out.sinks;
+  cTransformSources(pr, sinks, out.v, 4.0 * tol, &uActive, &ties);
   r.u.resize(a.size());
   r.v.resize(b.size());
   for (int i = 0; i < pr.n(); ++i) r.u(pr.rowA[std::size_t(i)]) = uActive(i);
   for (int j = 0; j < pr.m(); ++j) r.v(pr.rowB[std::size_t(j)]) = out.v(j);
   for (Eigen::Index i = 0; i < a.size(); ++i)
-    if (massA[std::size_t(i)] == 0) r.u(i) = cTransformAt(a.points(i, 0), a.points(i, 1), pr.bx, pr.by, out.v, pr.cost);
+    if (massA[std::size_t(i)] == 0) r.u(i) = sinks.minScore(a.points(i, 0), a.points(i, 1));
   for (Eigen::Index j = 0; j < b.size(); ++j)
     if (massB[std::size_t(j)] == 0)
       r.v(j) = cTransformAt(b.points(j, 0), b.points(j, 1), a.points.col(0).array(), a.points.col(1).array(),

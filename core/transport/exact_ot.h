@@ -45,6 +45,9 @@ struct ExactOtOptions {
                                   // S = (bounding-box diagonal)^p; in (0, 1e-3]
   long long maxPivots = 2000000000;  // iteration limit over all rounds, >= 0
   int neighbours = 6;             // candidate arcs per point (k nearest), >= 0
+  int warmNeighbours = 0;         // the same for warm starts, which begin from the old
+                                  // basis and the arcs pricing added last time (measured:
+                                  // extra neighbours only slow them down)
   int arcsPerRow = 8;             // violated arcs added per source and pricing round, >= 1
   InitialBasis initial = InitialBasis::Greedy;  // start of the coarsest (or only) level
   bool multiscale = true;         // start large problems from a solve on grouped points

@@ -1,6 +1,8 @@
 // Pricing of all n·m pairs for the exact solver, with costs computed from coordinates
 // (nothing of size n × m is stored), and the c-transform of a potential (Villani 2009,
 // "Optimal Transport: Old and New", Def. 5.7): v^c(x) = min_j (c(x, y_j) − v_j).
+// Both run per source over a SiteTree of the sinks, which skips whole boxes of sinks that
+// cannot score low enough; the answers are those of a scan over every pair.
 #pragma once
 
 #include <Eigen/Core>
@@ -9,22 +11,25 @@
 
 #include "measures/run_control.h"
 #include "transport/exact_problem.h"
+#include "transport/exact_site_tree.h"
 
 namespace barrow {
 
 /// Arcs with reduced cost c_ij − u_i − v_j < −tol, at most `perRow` per source (the most
-/// negative ones). u, v are over the active points. Returns false when `control` asked to
-/// stop (polled every 256 rows, reporting `progress`); `violated` then holds what was found.
-bool priceAllPairs(const ExactProblem& pr, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v, double tol,
-                   int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
+/// negative ones). u, v are over the active points; `sinks` is a tree over pr's sinks (its
+/// potentials are set to v here). Returns false when `control` asked to stop (polled every
+/// 256 rows, reporting `progress`); `violated` then holds what was found.
+bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v,
+                   double tol, int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
                    double progress);
 
 /// u_i = v^c(x_i) for every active source, and per source the number of sinks whose
 /// c_ij − v_j lies within zeroTol of that minimum (the basis arcs plus any ties).
-void cTransformSources(const ExactProblem& pr, const Eigen::ArrayXd& v, double zeroTol, Eigen::ArrayXd* u,
-                       std::vector<int>* ties);
+void cTransformSources(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& v, double zeroTol,
+                       Eigen::ArrayXd* u, std::vector<int>* ties);
 
-/// v^c at one point (x, y) over the sites (sx, sy) with potentials v. Pre: at least one site.
+/// v^c at one point (x, y) over the sites (sx, sy) with potentials v, by a full scan.
+/// Pre: at least one site.
 double cTransformAt(double x, double y, const Eigen::Ref<const Eigen::ArrayXd>& sx,
                     const Eigen::Ref<const Eigen::ArrayXd>& sy, const Eigen::Ref<const Eigen::ArrayXd>& v,
                     const GroundCost& cost);

@@ -7,7 +7,8 @@
 namespace barrow {
 
 std::vector<std::int64_t> quantizeMasses(const Eigen::VectorXd& w, std::int64_t target) {
-  const long double total = w.sum();
+  long double total = 0;
+  for (Eigen::Index i = 0; i < w.size(); ++i) total += w(i) > 0 ? (long double)w(i) : 0.0L;
   std::vector<std::int64_t> q(std::size_t(w.size()), 0);
   std::vector<int> positive;
   std::int64_t sum = 0;
@@ -18,13 +19,15 @@ std::vector<std::int64_t> quantizeMasses(const Eigen::VectorXd& w, std::int64_t 
     sum += q[std::size_t(i)];
     positive.push_back(int(i));
   }
-  // The rounding residue (a few units per point at most) goes to the largest masses, one
-  // unit each in turn, so no mass changes by more than a few parts in 2^60 of the total.
+  // The rounding residue (about one unit per point) goes to the largest masses, one unit
+  // each in turn, so no mass moves by more than a unit or two; none drops below one unit.
   std::stable_sort(positive.begin(), positive.end(), [&](int x, int y) { return q[std::size_t(x)] > q[std::size_t(y)]; });
   std::int64_t residue = target - sum;
   const std::int64_t step = residue > 0 ? 1 : -1;
   for (std::size_t t = 0; residue != 0; t = (t + 1) % positive.size()) {
-    q[std::size_t(positive[t])] += step;
+    std::int64_t& qi = q[std::size_t(positive[t])];
+    if (step < 0 && qi <= 1) continue;
+    qi += step;
     residue -= step;
   }
   return q;

@@ -4,6 +4,7 @@
 
 #include "transport/exact_cost.h"
 #include "transport/exact_pricing.h"
+#include "transport/exact_site_tree.h"
 
 namespace barrow {
 namespace {
@@ -20,12 +21,11 @@ double krPotential(const Cloud& b, const Eigen::VectorXd& v, const Eigen::Vector
 Eigen::MatrixXd krPotentialGrid(const Cloud& b, const Eigen::VectorXd& v, double x0, double y0, double dx,
                                 double dy, int nx, int ny) {
   if (!fits(b, v) || nx <= 0 || ny <= 0) return {};
-  const GroundCost distance(1.0);
+  SiteTree sites(b.points.col(0).array(), b.points.col(1).array(), GroundCost(1.0));
+  sites.setPotentials(v.array());
   Eigen::MatrixXd out(ny, nx);
   for (int r = 0; r < ny; ++r)
-    for (int c = 0; c < nx; ++c)
-      out(r, c) = cTransformAt(x0 + c * dx, y0 + r * dy, b.points.col(0).array(), b.points.col(1).array(),
-                               v.array(), distance);
+    for (int c = 0; c < nx; ++c) out(r, c) = sites.minScore(x0 + c * dx, y0 + r * dy);
   return out;
 }
 
