@@ -26,8 +26,8 @@ FindingsPanel::FindingsPanel(QWidget* parent) : QWidget(parent), table_(new QTab
   table_->setEditTriggers(QAbstractItemView::NoEditTriggers);
   table_->setWordWrap(true);
   table_->horizontalHeader()->setSectionResizeMode(0, QHeaderView::ResizeToContents);
-  table_->horizontalHeader()->setSectionResizeMode(1, QHeaderView::ResizeToContents);
-  table_->horizontalHeader()->setMinimumSectionSize(40);
+  table_->horizontalHeader()->setSectionResizeMode(1, QHeaderView::Interactive);
+  table_->horizontalHeader()->resizeSection(1, QFontMetrics(font()).horizontalAdvance("12 jumps, flat  "));
   table_->horizontalHeader()->setSectionResizeMode(2, QHeaderView::Stretch);
   connect(table_, &QTableWidget::itemSelectionChanged, this, [this] {
     const auto rows = table_->selectionModel()->selectedRows();
@@ -63,7 +63,6 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
     if (m) name->setToolTip(QString::fromStdString(m->displayName()));
     QString verdict = f.continuous ? tr("continuous") : tr("%n jump(s)", "", int(f.jumps.size()));
     if (!f.flat.empty()) verdict += tr(", flat");
-    if (!f.monotone) verdict += tr(", not monotone");
     auto* v = new QTableWidgetItem(verdict);
     v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
     v->setToolTip(tr("Lipschitz estimate %1").arg(f.lipschitz, 0, 'g', 3));
@@ -82,6 +81,7 @@ void FindingsPanel::selectMeasure(const std::string& id) {
     QTableWidgetItem* it = table_->item(r, 0);
     if (it && it->data(Qt::UserRole).toString().toStdString() == id) {
       table_->selectRow(r);
+      table_->scrollToItem(it);
       return;
     }
   }

@@ -65,7 +65,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   qRegisterMetaType<barrow::ui::SweepOutcome>();
   setObjectName("barrowMainWindow");
   setAcceptDrops(true);
-  files_ = new SessionFiles(doc_, [this] { return field_->viewOptions(); }, this);
+  files_ = new SessionFiles(doc_, [this] { return viewOptions(); }, this);
   field_ = new FieldPanel(doc_, this);
   field_->setObjectName("fieldPanel");
   setCentralWidget(field_);
@@ -105,6 +105,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
       findings_->clear(tr("The sweep was cancelled."));
     else
       findings_->setFindings(sweep_->findings());
+    findings_->selectMeasure(sweep_->plots()->highlighted());
   });
   auto focus = [this](const QString& id) {
     sweep_->plots()->highlight(id.toStdString());
@@ -282,11 +283,33 @@ void MainWindow::rebuildRecentMenu() {
 void MainWindow::setSession(const Session& s, const QString& path) {
   setTheta(std::nullopt);
   doc_->reset(s, path);
-  field_->setViewOptions(s.view);
+  applyViewOptions(s.view);
   field_->showSessionClouds();
   field_->view()->fitToData();
   scheduleLive();
   if (options_.autoSweep && sweep_->runButton()->isEnabled()) sweep_->run();
+}
+
+nlohmann::json MainWindow::viewOptions() const {
+  nlohmann::json v = field_->viewOptions();
+  v["theta"] = theta_ ? nlohmann::json(*theta_) : nlohmann::json();
+  v["highlight"] = sweep_->plots()->highlighted();
+  v["normalise"] = sweep_->plots()->normalised();
+  return v;
+}
+
+void MainWindow::applyViewOptions(const nlohmann::json& v) {
+  field_->setViewOptions(v);
+  if (!v.is_object()) return;
+  if (v.contains("normalise") && v["normalise"].is_boolean()) sweep_->setNormalised(v["normalise"].get<bool>());
+  if (v.contains("highlight") && v["highlight"].is_string()) {
+    const std::string id = v["highlight"].get<std::string>();
+    sweep_->plots()->highlight(id);
+    findings_->selectMeasure(id);
+    if (!id.empty()) measures_->focusMeasure(id);
+  }
+  // The θ cursor last: it moves A on the Field.
+  if (v.contains("theta") && v["theta"].is_number()) setTheta(v["theta"].get<double>());
 }
 
 QString MainWindow::openFile(const QString& path) {

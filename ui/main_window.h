@@ -51,6 +51,10 @@ class MainWindow : public QMainWindow {
   /// Replaces the "A or B?" question for dropped clouds (tests); nullopt cancels.
   void setDropChooser(std::function<std::optional<Which>(const QString&)> chooser) { dropChooser_ = std::move(chooser); }
 
+  /// The GUI state kept in a session's "view": overlays, θ cursor, highlighted measure.
+  nlohmann::json viewOptions() const;
+  void applyViewOptions(const nlohmann::json& v);
+
   /// Moves the θ cursor (nullopt releases it: the Field shows A as drawn).
   void setTheta(std::optional<double> theta);
   std::optional<double> theta() const { return theta_; }

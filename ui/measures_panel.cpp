@@ -47,7 +47,7 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   // Fixed widths from the font: resizing to contents would measure every row on every
   // update, which is most of the cost of a table refresh while points are dragged.
   const QFontMetrics fm(font());
-  const int widths[kColumns] = {0, fm.horizontalAdvance("−0.000000e-00"), fm.horizontalAdvance("+0.000000e-00"),
+  const int widths[kColumns] = {0, fm.horizontalAdvance("0.000000  "), fm.horizontalAdvance("+0.000000  "),
                                 fm.horizontalAdvance("updating…  "), fm.horizontalAdvance("000.0 ms  ")};
   for (int c = kValue; c < kColumns; ++c) {
     tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);

@@ -14,7 +14,7 @@ inline QColor accent() { return QColor(0, 158, 115); }   // Okabe–Ito bluish g
 inline QColor exactPlan() { return QColor(0, 0, 0); }    // Okabe–Ito black
 inline QColor entropicPlan() { return QColor(204, 121, 167); }  // Okabe–Ito reddish purple
 inline QColor interpolation() { return accent(); }
-inline QColor cursor() { return QColor(230, 159, 0); }   // Okabe–Ito orange
+inline QColor cursor() { return QColor(40, 40, 40); }    // near black: distinct from every curve's dash
 inline QColor jump() { return QColor(213, 94, 0); }
 inline QColor flat() { return QColor(86, 180, 233, 60); }  // Okabe–Ito sky blue, translucent
 

@@ -88,7 +88,8 @@ void SegmentLayer::draw(QCPPainter* painter) {
   applyDefaultAntialiasingHint(painter);
   const double cut = threshold_ * maxMass_;
   const bool anyHighlight = hiIndex_ >= 0;
-  // Opacity ∝ mass, with a floor so light segments stay faintly visible; dimmed while a
+  // Opacity ∝ mass (at most 0.55, so dense plans do not hide the points), with a floor so
+  // light segments stay faintly visible; dimmed while a
   // point is hovered so that its own segments stand out. Opacities are binned into a few
   // levels and each level is drawn with one pen in one call: thousands of segments then
   // cost a few milliseconds instead of one pen change each.
@@ -110,7 +111,7 @@ void SegmentLayer::draw(QCPPainter* painter) {
     if (lines[std::size_t(level)].isEmpty()) continue;
     QColor c = color_;
     const double share = (level + 0.5) / kLevels;
-    c.setAlphaF(std::clamp(0.06 + 0.8 * share, 0.0, 1.0) * (anyHighlight ? 0.35 : 1.0));
+    c.setAlphaF(std::clamp(0.05 + 0.5 * share, 0.0, 1.0) * (anyHighlight ? 0.35 : 1.0));
     pen.setColor(c);
     painter->setPen(pen);
     painter->drawLines(lines[std::size_t(level)]);

@@ -344,6 +344,8 @@ void SweepPanel::setActive(bool on) {
   emit runningChanged(on);
 }
 
+void SweepPanel::setNormalised(bool on) { normalise_->setChecked(on); }
+
 void SweepPanel::cancel() {
   queue_.clear();
   runner_.cancel();

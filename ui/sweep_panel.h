@@ -30,6 +30,8 @@ class SweepPanel : public QWidget {
 
   void run();
   void cancel();
+  /// The "normalise to [0, 1]" toggle.
+  void setNormalised(bool on);
   bool running() const;
   SweepPlots* plots() const { return plots_; }
   /// The passes of the last run that finished (cheap measures, then slow ones).

@@ -131,6 +131,18 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   cursorS_ = verticalLine(slopes_, cur);
   cursorV_->setLayer("cursor");
   cursorS_->setLayer("cursor");
+  cursorLabel_ = new QCPItemText(plot_);
+  cursorLabel_->setLayer("cursor");
+  cursorLabel_->setClipAxisRect(values_);
+  cursorLabel_->position->setAxes(values_->axis(QCPAxis::atBottom), values_->axis(QCPAxis::atLeft));
+  cursorLabel_->position->setAxisRect(values_);
+  cursorLabel_->position->setTypeX(QCPItemPosition::ptPlotCoords);
+  cursorLabel_->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
+  cursorLabel_->setPositionAlignment(Qt::AlignLeft | Qt::AlignTop);
+  cursorLabel_->setPadding(QMargins(3, 1, 3, 1));
+  cursorLabel_->setBrush(QColor(255, 255, 255, 220));
+  cursorLabel_->setColor(palette::cursor());
+  cursorLabel_->setVisible(false);
   cursorV_->setVisible(false);
   cursorS_->setVisible(false);
   clear(tr("Run a sweep to see how each measure responds as A moves."));
@@ -226,7 +238,7 @@ void SweepPlots::rebuild() {
   // Keep the cursor and reference lines; drop the finding markers.
   for (int k = plot_->itemCount() - 1; k >= 0; --k) {
     QCPAbstractItem* it = plot_->item(k);
-    if (it != cursorV_ && it != cursorS_ && it != refV_ && it != refS_) plot_->removeItem(it);
+    if (it != cursorV_ && it != cursorS_ && it != cursorLabel_ && it != refV_ && it != refS_) plot_->removeItem(it);
   }
   QCPAxis* vx = values_->axis(QCPAxis::atBottom);
   QCPAxis* vy = values_->axis(QCPAxis::atLeft);
@@ -344,9 +356,16 @@ void SweepPlots::setCursor(std::optional<double> theta) {
   cursor_ = theta;
   cursorV_->setVisible(theta.has_value());
   cursorS_->setVisible(theta.has_value());
+  cursorLabel_->setVisible(theta.has_value());
   if (theta) {
     placeLine(cursorV_, *theta);
     placeLine(cursorS_, *theta);
+    cursorLabel_->position->setCoords(*theta, 0.0);
+    cursorLabel_->setText(QString("θ = %1").arg(*theta, 0, 'g', 4));
+    // Keep the label inside the pane near the right edge.
+    const QCPRange r = values_->axis(QCPAxis::atBottom)->range();
+    cursorLabel_->setPositionAlignment(*theta > r.lower + 0.8 * r.size() ? (Qt::AlignRight | Qt::AlignTop)
+                                                                          : (Qt::AlignLeft | Qt::AlignTop));
   }
   plot_->layer("cursor")->replot();
 }

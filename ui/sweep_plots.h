@@ -16,6 +16,7 @@
 class QCustomPlot;
 class QCPAxisRect;
 class QCPItemStraightLine;
+class QCPItemText;
 class QLabel;
 class QMouseEvent;
 
@@ -70,6 +71,7 @@ class SweepPlots : public QWidget {
   QLabel* hint_;
   QCPItemStraightLine* cursorV_;
   QCPItemStraightLine* cursorS_;
+  QCPItemText* cursorLabel_;
   QCPItemStraightLine* refV_;
   QCPItemStraightLine* refS_;
   struct Curve {

@@ -11,6 +11,8 @@
 #include "field_panel.h"
 #include "scenario/demo_scenario.h"
 #include "session_files.h"
+#include "sweep_panel.h"
+#include "sweep_plots.h"
 #include "support/test_support.h"
 #include "ui_test_support.h"
 
@@ -41,6 +43,8 @@ TEST(SessionFileTest, SavedSessionReopensWithSameCloudsSettingsAndView) {
   doc->setSelected({"js", "tv"});
   w->field()->setEntropicShown(true);
   w->field()->setThreshold(0.3);
+  w->setTheta(12.5);
+  w->sweep()->plots()->highlight("js");
   const QString path = QString::fromStdString(barrow::test::tempPath("roundtrip.json"));
   ASSERT_TRUE(w->saveTo(path).isEmpty()) << w->lastError().toStdString();
   EXPECT_FALSE(doc->isModified());
@@ -62,6 +66,8 @@ TEST(SessionFileTest, SavedSessionReopensWithSameCloudsSettingsAndView) {
   EXPECT_EQ(r.sweep.steps, 37);
   EXPECT_EQ(r.sweep.reference, 10.0);
   EXPECT_TRUE(w2->field()->entropicPlanShown());
+  EXPECT_EQ(w2->theta(), std::optional<double>(12.5));
+  EXPECT_EQ(w2->sweep()->plots()->highlighted(), "js");
   EXPECT_DOUBLE_EQ(w2->field()->viewOptions()["threshold"].get<double>(), 0.3);
   EXPECT_EQ(w2->document()->path(), path);
   EXPECT_FALSE(w2->document()->isModified());
