@@ -7,6 +7,7 @@
 #include <QHBoxLayout>
 #include <QInputDialog>
 #include <QLabel>
+#include <QSettings>
 #include <QSlider>
 #include <QSpinBox>
 #include <QToolBar>
@@ -80,7 +81,16 @@ QWidget* FieldPanel::buildToolRow() {
   perDab_->setValue(editor_->brushCount());
   perDab_->setSuffix(tr(" pts"));
   perDab_->setToolTip(tr("Spray density: points added per dab (a dab every few pixels or 70 ms)"));
-  auto brush = [this] { editor_->setBrush(radius_->value(), perDab_->value()); };
+  // The brush is a habit of the user, not part of a session: kept in the settings.
+  QSettings settings;
+  radius_->setValue(settings.value("field/brushRadius", radius_->value()).toDouble());
+  perDab_->setValue(settings.value("field/brushCount", perDab_->value()).toInt());
+  editor_->setBrush(radius_->value(), perDab_->value());
+  auto brush = [this] {
+    editor_->setBrush(radius_->value(), perDab_->value());
+    QSettings().setValue("field/brushRadius", radius_->value());
+    QSettings().setValue("field/brushCount", perDab_->value());
+  };
   connect(radius_, &QDoubleSpinBox::valueChanged, this, brush);
   connect(perDab_, &QSpinBox::valueChanged, this, brush);
   l->addWidget(target_);

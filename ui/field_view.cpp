@@ -25,6 +25,7 @@ FieldView::FieldView(QWidget* parent)
   readout_->setMinimumHeight(readout_->fontMetrics().height() + 4);
   readout_->setToolTip(tr("Hover a point to see where its mass goes under the exact plan"));
   plot_->setObjectName("fieldPlot");
+  plot_->setFocusPolicy(Qt::ClickFocus);  // clicking the Field gives it the editing keys
   plot_->setToolTip(QString());
   plot_->setInteractions(QCP::iRangeZoom);
   plot_->setAntialiasedElements(QCP::aePlottables);

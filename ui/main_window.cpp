@@ -225,16 +225,24 @@ void MainWindow::buildMenus() {
   edit->addAction(undo);
   edit->addAction(redo);
   edit->addSeparator();
-  add(edit, tr("Select &all"), QKeySequence::SelectAll, tr("Select every point of both clouds"),
-      [this] { field_->editor()->selectAll(); }, this);
-  add(edit, tr("Clear selection"), QKeySequence(Qt::Key_Escape), tr("Deselect (and cancel a drag in progress)"), [this] {
-    field_->editor()->cancelGesture();
-    field_->editor()->clearSelection();
-  }, this);
-  add(edit, tr("&Delete selected points"), QKeySequence::Delete, tr("Remove the selected points"), [this] {
+  // Keys that text fields also use act on the Field only while it has the focus, so that
+  // Ctrl+A, Delete and Esc keep their meaning in the table's editors and the spin boxes.
+  auto fieldKey = [this](QAction* a) {
+    a->setShortcutContext(Qt::WidgetWithChildrenShortcut);
+    field_->addAction(a);
+  };
+  fieldKey(add(edit, tr("Select &all"), QKeySequence::SelectAll, tr("Select every point of both clouds"),
+               [this] { field_->editor()->selectAll(); }, this));
+  fieldKey(add(edit, tr("Clear selection"), QKeySequence(Qt::Key_Escape), tr("Deselect (and cancel a drag in progress)"),
+               [this] {
+                 field_->editor()->cancelGesture();
+                 field_->editor()->clearSelection();
+               },
+               this));
+  fieldKey(add(edit, tr("&Delete selected points"), QKeySequence::Delete, tr("Remove the selected points"), [this] {
     const QString why = field_->editor()->deleteSelection();
     if (!why.isEmpty()) status(why);
-  }, this);
+  }, this));
   add(edit, tr("Set &weight of selection…"), QKeySequence("Ctrl+W"), tr("Give the selected points a weight"),
       [this] { field_->askSelectionWeight(); }, this);
   add(edit, tr("&Generate cloud…"), QKeySequence("Ctrl+G"), tr("Make a cloud of a common shape"),

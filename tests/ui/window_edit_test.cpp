@@ -111,6 +111,17 @@ TEST(WindowEditTest, AddDragDeleteUpdateCloudsAndMeasuresAndUndoRestoresExactly)
   EXPECT_TRUE(w->document()->isModified());
 }
 
+TEST(WindowEditTest, DeleteKeyOnTheFieldRemovesTheSelection) {
+  auto w = makeWindow(demoSession());
+  QCustomPlot* plot = w->field()->view()->plot();
+  const Eigen::Index n = w->session().a.size();
+  w->field()->editor()->select(Which::A, {1, 4});
+  plot->setFocus();
+  QTest::keyClick(plot, Qt::Key_Delete);
+  EXPECT_EQ(w->session().a.size(), n - 2);
+  ASSERT_TRUE(waitIdle(*w));
+}
+
 TEST(WindowEditTest, DeletingAWholeCloudIsRefusedAndChangesNothing) {
   auto w = makeWindow(demoSession());
   FieldEditor* ed = w->field()->editor();
