@@ -298,18 +298,22 @@ void FieldPanel::applyUpdate(const LiveUpdate& u) {
 void FieldPanel::openGenerator() {
   GeneratorDialog dlg(editor_->target(), this);
   if (dlg.exec() != QDialog::Accepted) return;
+  applyGenerated(dlg.spec(), dlg.target(), dlg.replace());
+}
+
+QString FieldPanel::applyGenerated(const ShapeSpec& spec, Which w, bool replace) {
   emit editor_->editStarting();
-  const Which w = dlg.target();
-  const ShapeSpec spec = dlg.spec();
   const Cloud& old = doc_->cloud(w);
   Cloud made;
   try {
     made = generate(spec, old.name.empty() ? (w == Which::A ? "A" : "B") : old.name);
   } catch (const std::exception& e) {
-    emit message(tr("Cannot generate: %1").arg(e.what()));
-    return;
+    const QString why = tr("Cannot generate: %1").arg(e.what());
+    emit message(why);
+    return why;
   }
-  if (!dlg.replace() && old.size() > 0) {
+  if (!replace && old.size() > 0) {
+    // New points join with the cloud's mean weight, so they count like the existing ones.
     Cloud joined = old;
     const Eigen::Index n0 = old.size();
     joined.points.conservativeResize(n0 + made.size(), 2);
@@ -320,6 +324,7 @@ void FieldPanel::openGenerator() {
   }
   doc_->setCloud(w, made, tr("Generate %1 into %2").arg(QString::fromStdString(spec.shape), w == Which::A ? "A" : "B"));
   view_->fitToData();
+  return {};
 }
 
 void FieldPanel::askSelectionWeight() {

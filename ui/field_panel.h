@@ -8,6 +8,7 @@
 
 #include "field_editor.h"
 #include "live_evaluator.h"
+#include "scenario/generators.h"
 #include "session_document.h"
 
 class QCheckBox;
@@ -43,6 +44,8 @@ class FieldPanel : public QWidget {
   void showSessionClouds();
 
   void openGenerator();
+  /// Puts a generated cloud into A or B (replacing it or joining it); one undo step.
+  QString applyGenerated(const ShapeSpec& spec, Which w, bool replace);
   void askSelectionWeight();
 
   // Overlay switches, also used by tests and the session's view options.

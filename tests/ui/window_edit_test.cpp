@@ -16,6 +16,7 @@
 #include "param_editor.h"
 #include "result_text.h"
 #include "scenario/demo_scenario.h"
+#include "scenario/generators.h"
 #include "ui_test_support.h"
 
 namespace barrow::ui {
@@ -109,6 +110,89 @@ TEST(WindowEditTest, AddDragDeleteUpdateCloudsAndMeasuresAndUndoRestoresExactly)
     EXPECT_TRUE(sameCloud(w->session().b, states[k].b)) << "redo to state " << k;
   }
   EXPECT_TRUE(w->document()->isModified());
+}
+
+TEST(WindowEditTest, SprayStrokeAddsPointsInTheBrushAsOneUndoStep) {
+  auto w = makeWindow(demoSession());
+  FieldView* view = w->field()->view();
+  FieldEditor* ed = w->field()->editor();
+  ed->setTool(FieldTool::Spray);
+  ed->setTarget(Which::B);
+  ed->setBrush(0.1, 5);
+  const Session s0 = w->session();
+  const QPoint p = test::fieldPixel(*view, 0.6, 0.0);
+  QTest::mousePress(view->plot(), Qt::LeftButton, {}, p);
+  QTest::mouseMove(view->plot(), p + QPoint(30, 0));
+  QTest::mouseRelease(view->plot(), Qt::LeftButton, {}, p + QPoint(30, 0));
+  const Cloud& b = w->session().b;
+  const Eigen::Index added = b.size() - s0.b.size();
+  EXPECT_GE(added, 5);
+  EXPECT_EQ(added % 5, 0);
+  EXPECT_TRUE(test::sameCloud(w->session().a, s0.a));
+  // [D] every sprayed point lies within the brush radius of the stroke (a horizontal segment).
+  const double x0 = view->plot()->xAxis->pixelToCoord(p.x()), x1 = view->plot()->xAxis->pixelToCoord(p.x() + 30);
+  const double y0 = view->plot()->yAxis->pixelToCoord(p.y());
+  for (Eigen::Index i = s0.b.size(); i < b.size(); ++i) {
+    const double dx = std::max({x0 - b.points(i, 0), 0.0, b.points(i, 0) - x1});
+    EXPECT_LE(std::hypot(dx, b.points(i, 1) - y0), 0.1 + 1e-12);
+  }
+  EXPECT_EQ(w->document()->undoStack()->count(), 1);
+  w->document()->undoStack()->undo();
+  EXPECT_TRUE(test::sameCloud(w->session().b, s0.b));
+  ASSERT_TRUE(waitIdle(*w));
+}
+
+TEST(WindowEditTest, RubberBandSelectsExactlyThePointsInsideAndMovesThem) {
+  auto w = makeWindow(demoSession());
+  FieldView* view = w->field()->view();
+  FieldEditor* ed = w->field()->editor();
+  ed->setTool(FieldTool::Select);
+  // A box around the upper half of A only (A lies near x = 0, B near x = 1.2).
+  const QPoint from = test::fieldPixel(*view, -0.3, 1.3), to = test::fieldPixel(*view, 0.3, 0.0);
+  QTest::mousePress(view->plot(), Qt::LeftButton, {}, from);
+  QTest::mouseMove(view->plot(), to);
+  QTest::mouseRelease(view->plot(), Qt::LeftButton, {}, to);
+  const Cloud& a = w->session().a;
+  const QRectF box = QRectF(QPointF(from), QPointF(to)).normalized();
+  int inside = 0;
+  for (Eigen::Index i = 0; i < a.size(); ++i) {
+    const bool in = box.contains(QPointF(view->plot()->xAxis->coordToPixel(a.points(i, 0)),
+                                         view->plot()->yAxis->coordToPixel(a.points(i, 1))));
+    EXPECT_EQ(ed->selection(Which::A)[std::size_t(i)], in) << i;
+    inside += in;
+  }
+  EXPECT_GT(inside, 50);
+  EXPECT_EQ(std::count(ed->selection(Which::B).begin(), ed->selection(Which::B).end(), true), 0);
+  const Session s0 = w->session();
+  ed->moveSelection(0.5, 0.0);
+  for (Eigen::Index i = 0; i < a.size(); ++i)
+    EXPECT_EQ(w->session().a.points(i, 0), s0.a.points(i, 0) + (ed->selection(Which::A)[std::size_t(i)] ? 0.5 : 0.0));
+  ASSERT_TRUE(waitIdle(*w));
+}
+
+TEST(WindowEditTest, GeneratorReplacesOrExtendsACloud) {
+  auto w = makeWindow(demoSession());
+  const Session s0 = w->session();
+  ShapeSpec spec;
+  spec.shape = "ring";
+  spec.count = 40;
+  spec.center = {0.5, -0.5};
+  spec.spread = 0.7;
+  spec.seed = 9;
+  // [D] the generator is deterministic: the same spec gives the same points.
+  ASSERT_TRUE(w->field()->applyGenerated(spec, Which::B, true).isEmpty());
+  const Cloud expected = generate(spec, s0.b.name);
+  EXPECT_EQ(w->session().b.points, expected.points);
+  EXPECT_TRUE(test::sameCloud(w->session().a, s0.a));
+  ASSERT_TRUE(w->field()->applyGenerated(spec, Which::A, false).isEmpty());
+  ASSERT_EQ(w->session().a.size(), s0.a.size() + 40);
+  EXPECT_EQ(w->session().a.points.topRows(s0.a.size()), s0.a.points);
+  EXPECT_EQ(w->session().a.points.bottomRows(40), expected.points);
+  EXPECT_EQ(w->document()->undoStack()->count(), 2);
+  spec.count = 0;
+  EXPECT_FALSE(w->field()->applyGenerated(spec, Which::A, true).isEmpty());  // refused, nothing changes
+  EXPECT_EQ(w->document()->undoStack()->count(), 2);
+  ASSERT_TRUE(waitIdle(*w));
 }
 
 TEST(WindowEditTest, DeleteKeyOnTheFieldRemovesTheSelection) {
