@@ -4,6 +4,7 @@
 #include <numeric>
 
 #include "transport/exact_candidates.h"
+#include "transport/exact_site_tree.h"
 
 namespace barrow {
 namespace {
@@ -88,9 +89,8 @@ CoarseProblem coarsen(const ExactProblem& fine, int groupSize) {
 }
 
 void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
-                 const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU,
-                 const Eigen::ArrayXd& coarseV, std::vector<std::pair<int, int>>* arcs,
-                 std::vector<FlowArc>* basis) {
+                 const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU, int guided,
+                 std::vector<std::pair<int, int>>* arcs, std::vector<FlowArc>* basis) {
   std::vector<int> startA, listA, startB, listB;
   members(coarse.groupA, coarse.problem.n(), &startA, &listA);
   members(coarse.groupB, coarse.problem.m(), &startB, &listB);
@@ -98,11 +98,30 @@ void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
     for (int s = startA[std::size_t(g)]; s < startA[std::size_t(g) + 1]; ++s)
       for (int t = startB[std::size_t(h)]; t < startB[std::size_t(h) + 1]; ++t)
         arcs->emplace_back(listA[std::size_t(s)], listB[std::size_t(t)]);
+
+  // Fine potentials from the coarse ones: v = U^c at the fine sinks, u = v^c at the fine
+  // sources; the lowest scores of each source are its guided arcs.
+  SiteTree coarseSources(coarse.problem.ax, coarse.problem.ay, fine.cost);
+  coarseSources.setPotentials(coarseU);
+  Eigen::ArrayXd v(fine.m()), u(fine.n());
+  for (int j = 0; j < fine.m(); ++j) v(j) = coarseSources.minScore(fine.bx(j), fine.by(j));
+  SiteTree sinks(fine.bx, fine.by, fine.cost);
+  sinks.setPotentials(v);
+  std::vector<std::pair<double, int>> lowest;
+  for (int i = 0; i < fine.n(); ++i) {
+    if (guided > 0) {
+      sinks.below(fine.ax(i), fine.ay(i), INFINITY, guided, &lowest);
+      u(i) = lowest.front().first;
+      for (const auto& [score, j] : lowest) arcs->emplace_back(i, j);
+    } else {
+      u(i) = sinks.minScore(fine.ax(i), fine.ay(i));
+    }
+  }
   sortUnique(*arcs);
   std::vector<double> reduced(arcs->size());
   for (std::size_t k = 0; k < arcs->size(); ++k) {
     const auto [i, j] = (*arcs)[k];
-    reduced[k] = fine.c(i, j) - coarseU(coarse.groupA[std::size_t(i)]) - coarseV(coarse.groupB[std::size_t(j)]);
+    reduced[k] = fine.c(i, j) - u(i) - v(j);
   }
   *basis = greedyBasis(fine, *arcs, std::move(reduced));
 }

@@ -26,15 +26,18 @@ struct CoarseProblem {
 /// Groups of at most `groupSize` points (>= 2) per side.
 CoarseProblem coarsen(const ExactProblem& fine, int groupSize);
 
-/// Starting arcs for the fine problem: `arcs` comes in with extra arcs (e.g. nearest
-/// neighbours) and leaves with every pair of points whose groups the coarse plan joins
-/// added (`coarsePlan` holds coarse (i, j) pairs), sorted and unique. The basis ships
-/// greedily along these arcs in order of reduced cost c_ij − U(group i) − V(group j) under
-/// the coarse potentials, so it follows the coarse optimum; mass left over is matched by the
-/// north-west rule.
+/// Starting arcs and basis for the fine problem from the coarse optimum (plan pairs of
+/// coarse indices, potentials U on coarse sources, V on coarse sinks). `arcs` comes in with
+/// extra arcs (e.g. nearest neighbours) and leaves sorted and unique, with added:
+/// - every pair of points whose groups the coarse plan joins;
+/// - per fine source, the `guided` sinks of lowest c_ij − v_j, where v_j = U^c(y_j) is the
+///   c-transform of the coarse source potentials at the fine sinks (arcs the coarse duals
+///   say are nearly tight; for W1 these reach across gaps that nearest neighbours miss).
+/// The basis ships greedily along these arcs in order of reduced cost c_ij − u_i − v_j
+/// (u = v^c), so it follows the coarse optimum; mass left over is matched by the north-west
+/// rule.
 void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
-                 const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU,
-                 const Eigen::ArrayXd& coarseV, std::vector<std::pair<int, int>>* arcs,
-                 std::vector<FlowArc>* basis);
+                 const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU, int guided,
+                 std::vector<std::pair<int, int>>* arcs, std::vector<FlowArc>* basis);
 
 }  // namespace barrow

@@ -20,18 +20,19 @@ std::string checkOptions(const ExactOtOptions& o) {
   if (!std::isfinite(o.p) || o.p < 1.0) return "cost exponent p must be a finite number >= 1";
   if (!(o.tolerance > 0.0 && o.tolerance <= 1e-3)) return "tolerance must lie in (0, 1e-3]";
   if (o.maxPivots < 0) return "pivot limit must be >= 0";
-  if (o.neighbours < 0 || o.warmNeighbours < 0) return "number of neighbours must be >= 0";
+  if (o.neighbours < 0 || o.warmNeighbours < 0 || o.guidedArcs < 0) return "numbers of arcs per point must be >= 0";
   if (o.arcsPerRow < 1) return "arcs added per row must be >= 1";
   if (o.groupSize < 2) return "multiscale group size must be >= 2";
+  if (o.coarsestSize < 1) return "coarsest level size must be >= 1";
   return {};
 }
 
 // One problem solved to optimality by column generation, from a given start.
 struct LevelOutcome {
   ExactOtStatus status = ExactOtStatus::Optimal;
-  std::vector<NetworkSimplex::BasisArc> basis;  // final basis (arc ids into `pairs`)
-  std::vector<int> roots;
-  std::vector<std::pair<int, int>> arcs;         // every arc the restricted problems held
+  std::vector<FlowArc> basis;                    // final basis (zero flows included)
+  std::vector<int> roots;                        // its component roots
+  int arcs = 0;                                  // arcs the restricted problem held at the end
   Eigen::ArrayXd u, v;                           // tree potentials at the end
   std::vector<std::pair<int, int>> added;        // arcs found by pricing
   std::shared_ptr<SiteTree> sinks;               // tree over the sinks, for pricing
@@ -45,7 +46,7 @@ int arcId(const std::vector<std::pair<int, int>>& sorted, int i, int j) {
 
 // Restricted problem on `pairs` (sorted, unique, containing the basis arcs), then pricing
 // all pairs and adding violated arcs until none is left.
-LevelOutcome solveLevel(const ExactProblem& pr, std::vector<std::pair<int, int>> pairs,
+LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int, int>>& pairs,
                         const std::vector<FlowArc>& start, const std::vector<int>& roots,
                         const ExactOtOptions& o, const RunControl* control, long long budget,
                         std::string* error) {
@@ -86,9 +87,10 @@ LevelOutcome solveLevel(const ExactProblem& pr, std::vector<std::pair<int, int>>
   }
   out.pivots = ns.pivots();
   out.degenerate = ns.degeneratePivots();
-  ns.basis(&out.basis, &out.roots);
-  pairs.insert(pairs.end(), out.added.begin(), out.added.end());
-  out.arcs = std::move(pairs);
+  out.arcs = ns.arcCount();
+  std::vector<NetworkSimplex::BasisArc> final;
+  ns.basis(&final, &out.roots);
+  for (const auto& f : final) out.basis.push_back({ns.arcSource(f.arc), ns.arcSink(f.arc), f.flow});
   return out;
 }
 
@@ -118,8 +120,8 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
     const LevelOutcome c = solveCold(coarse.problem, o, control ? &coarseControl : nullptr, budget, error);
     if (!error->empty() || c.status == ExactOtStatus::Cancelled) return c;
     std::vector<std::pair<int, int>> plan;
-    for (const auto& f : c.basis) plan.push_back(c.arcs[std::size_t(f.arc)]);
-    refineStart(pr, coarse, plan, c.u, c.v, &pairs, &start);
+    for (const auto& f : c.basis) plan.emplace_back(f.i, f.j);
+    refineStart(pr, coarse, plan, c.u, o.guidedArcs, &pairs, &start);
     spent = c.pivots;
     degenerate = c.degenerate;
     rounds = c.rounds;
@@ -128,7 +130,7 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
   }
   for (const auto& f : start) pairs.emplace_back(f.i, f.j);
   sortUnique(pairs);
-  LevelOutcome out = solveLevel(pr, std::move(pairs), start, {}, o, control ? &fineControl : nullptr,
+  LevelOutcome out = solveLevel(pr, pairs, start, {}, o, control ? &fineControl : nullptr,
                                 std::max(0LL, budget - spent), error);
   out.pivots += spent;
   out.degenerate += degenerate;
@@ -136,39 +138,52 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
   return out;
 }
 
-std::vector<std::int64_t> perRow(const std::vector<std::int64_t>& mass, const std::vector<int>& rows, Eigen::Index size) {
-  std::vector<std::int64_t> out(std::size_t(size), 0);
-  for (std::size_t k = 0; k < rows.size(); ++k) out[std::size_t(rows[k])] = mass[k];
-  return out;
+// Potentials per input row: u becomes the c-transform of v, so u_i + v_j <= c_ij holds for
+// every pair; rows of zero weight get the c-transform too (A against B's sinks, then B
+// against all of A). `ties` counts, per active source, sinks within zeroTol of its minimum.
+void fillPotentials(const Cloud& a, const Cloud& b, const ExactProblem& pr, const LevelOutcome& out, double zeroTol,
+                    ExactOtResult* r, std::vector<int>* ties) {
+  Eigen::ArrayXd u;
+  cTransformSources(pr, *out.sinks, out.v, zeroTol, &u, ties);
+  r->u.resize(a.size());
+  r->v.resize(b.size());
+  for (int i = 0; i < pr.n(); ++i) r->u(pr.rowA[std::size_t(i)]) = u(i);
+  for (int j = 0; j < pr.m(); ++j) r->v(pr.rowB[std::size_t(j)]) = out.v(j);
+  const auto massA = massesPerRow(pr, true, a.size()), massB = massesPerRow(pr, false, b.size());
+  for (Eigen::Index i = 0; i < a.size(); ++i)
+    if (massA[std::size_t(i)] == 0) r->u(i) = out.sinks->minScore(a.points(i, 0), a.points(i, 1));
+  for (Eigen::Index j = 0; j < b.size(); ++j)
+    if (massB[std::size_t(j)] == 0)
+      r->v(j) = cTransformAt(b.points(j, 0), b.points(j, 1), a.points.col(0).array(), a.points.col(1).array(),
+                             r->u.array(), pr.cost);
 }
 
-std::vector<int> inverse(const std::vector<int>& rows, Eigen::Index size) {
-  std::vector<int> out(std::size_t(size), -1);
-  for (std::size_t k = 0; k < rows.size(); ++k) out[std::size_t(rows[k])] = int(k);
-  return out;
-}
-
-// The warm state's basis in active indices; false if it does not fit this problem.
-bool warmStart(const ExactWarmState& ws, const ExactProblem& pr, Eigen::Index n, Eigen::Index m,
-               std::vector<FlowArc>* basis, std::vector<int>* roots, std::vector<std::pair<int, int>>* extra) {
-  const auto toA = inverse(pr.rowA, n), toB = inverse(pr.rowB, m);
-  auto fits = [&](int i, int j) {
-    return i >= 0 && i < n && j >= 0 && j < m && toA[std::size_t(i)] >= 0 && toB[std::size_t(j)] >= 0;
-  };
-  if (ws.basisArcs.size() != ws.basisFlows.size()) return false;
-  for (std::size_t k = 0; k < ws.basisArcs.size(); ++k) {
-    const auto [i, j] = ws.basisArcs[k];
-    if (!fits(i, j)) return false;
-    basis->push_back({toA[std::size_t(i)], toB[std::size_t(j)], ws.basisFlows[k]});
+// The plan (nonzero flows), its cost, value and marginal error, the duality gap, and
+// whether the plan is certainly unique: no arc off the basis has zero reduced cost.
+void fillPlan(const Cloud& a, const Cloud& b, const ExactProblem& pr, const LevelOutcome& out,
+              const std::vector<int>& ties, ExactOtResult* r) {
+  std::vector<int> basicPerRow(std::size_t(pr.n()), 0);
+  Eigen::VectorXd rowSum = Eigen::VectorXd::Zero(a.size()), colSum = Eigen::VectorXd::Zero(b.size());
+  double cost = 0.0;
+  for (const auto& f : out.basis) {
+    ++basicPerRow[std::size_t(f.i)];
+    if (f.flow == 0) continue;
+    const double mass = double(f.flow) / double(pr.total);
+    const int ri = pr.rowA[std::size_t(f.i)], rj = pr.rowB[std::size_t(f.j)];
+    r->plan.push_back({ri, rj, mass});
+    cost += mass * pr.c(f.i, f.j);
+    rowSum(ri) += mass;
+    colSum(rj) += mass;
   }
-  for (int r : ws.roots) {
-    const int node = r < 0 ? -1 : r < n ? toA[std::size_t(r)] : r - n < m ? toB[std::size_t(r - n)] : -1;
-    if (node < 0) return false;
-    roots->push_back(r < n ? node : pr.n() + node);
-  }
-  for (const auto& [i, j] : ws.addedArcs)
-    if (fits(i, j)) extra->emplace_back(toA[std::size_t(i)], toB[std::size_t(j)]);
-  return true;
+  r->cost = cost;
+  r->value = pr.cost.root(cost);
+  r->marginalError = std::max((rowSum - a.normalizedWeights()).cwiseAbs().maxCoeff(),
+                              (colSum - b.normalizedWeights()).cwiseAbs().maxCoeff());
+  r->dualGap = cost - (a.normalizedWeights().dot(r->u) + b.normalizedWeights().dot(r->v));
+  if (out.status != ExactOtStatus::Optimal) return;
+  bool unique = true;
+  for (int i = 0; i < pr.n(); ++i) unique = unique && ties[std::size_t(i)] <= basicPerRow[std::size_t(i)];
+  r->planUnique = unique;
 }
 
 }  // namespace
@@ -189,7 +204,6 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   const ExactProblem pr = makeExactProblem(a, b, options.p);
   if (!std::isfinite(pr.scale())) return finish("the points span too wide a range: costs overflow double precision");
   const double tol = options.tolerance * pr.scale();
-  const auto massA = perRow(pr.massA, pr.rowA, a.size()), massB = perRow(pr.massB, pr.rowB, b.size());
 
   // Warm start when the stored basis fits (same sizes, weights and cost), else cold.
   LevelOutcome out;
@@ -198,13 +212,12 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   std::vector<FlowArc> basis;
   std::vector<int> roots;
   std::vector<std::pair<int, int>> pairs;
-  if (ws && ws->p == options.p && ws->massA == massA && ws->massB == massB &&
-      warmStart(*ws, pr, a.size(), b.size(), &basis, &roots, &pairs)) {
+  if (ws && unpackWarmState(*ws, pr, a.size(), b.size(), &basis, &roots, &pairs)) {
     const auto near = nearestNeighbourArcs(pr, options.warmNeighbours);
     pairs.insert(pairs.end(), near.begin(), near.end());
     for (const auto& f : basis) pairs.emplace_back(f.i, f.j);
     sortUnique(pairs);
-    out = solveLevel(pr, std::move(pairs), basis, roots, options, control, options.maxPivots, &error);
+    out = solveLevel(pr, pairs, basis, roots, options, control, options.maxPivots, &error);
     r.warmStarted = error.empty();
   }
   if (!r.warmStarted) {
@@ -216,68 +229,15 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   r.pivots = out.pivots;
   r.degeneratePivots = out.degenerate;
   r.rounds = out.rounds;
-  r.arcs = int(out.arcs.size());
+  r.arcs = out.arcs;
   if (r.status == ExactOtStatus::Cancelled) return finish("cancelled");
 
-  // Duals: u becomes the c-transform of v, so u_i + v_j <= c_ij holds for every pair; the
-  // points of zero weight get the c-transform too (A against B, then B against all of A).
   std::vector<int> ties;
-  Eigen::ArrayXd uActive;
-  SiteTree& sinks = *out.sinks;
-  cTransformSources(pr, sinks, out.v, 4.0 * tol, &uActive, &ties);
-  r.u.resize(a.size());
-  r.v.resize(b.size());
-  for (int i = 0; i < pr.n(); ++i) r.u(pr.rowA[std::size_t(i)]) = uActive(i);
-  for (int j = 0; j < pr.m(); ++j) r.v(pr.rowB[std::size_t(j)]) = out.v(j);
-  for (Eigen::Index i = 0; i < a.size(); ++i)
-    if (massA[std::size_t(i)] == 0) r.u(i) = sinks.minScore(a.points(i, 0), a.points(i, 1));
-  for (Eigen::Index j = 0; j < b.size(); ++j)
-    if (massB[std::size_t(j)] == 0)
-      r.v(j) = cTransformAt(b.points(j, 0), b.points(j, 1), a.points.col(0).array(), a.points.col(1).array(),
-                            r.u.array(), pr.cost);
-
-  // The plan, its cost and its marginals; the plan is unique when no arc off the basis
-  // has zero reduced cost (a sufficient condition).
-  std::vector<int> basicPerRow(std::size_t(pr.n()), 0);
-  Eigen::VectorXd rowSum = Eigen::VectorXd::Zero(a.size()), colSum = Eigen::VectorXd::Zero(b.size());
-  double cost = 0.0;
-  for (const auto& f : out.basis) {
-    const auto [i, j] = out.arcs[std::size_t(f.arc)];
-    ++basicPerRow[std::size_t(i)];
-    if (f.flow == 0) continue;
-    const double mass = double(f.flow) / double(pr.total);
-    const int ri = pr.rowA[std::size_t(i)], rj = pr.rowB[std::size_t(j)];
-    r.plan.push_back({ri, rj, mass});
-    cost += mass * pr.c(i, j);
-    rowSum(ri) += mass;
-    colSum(rj) += mass;
-  }
-  r.cost = cost;
-  r.value = pr.cost.root(cost);
-  r.marginalError = std::max((rowSum - a.normalizedWeights()).cwiseAbs().maxCoeff(),
-                             (colSum - b.normalizedWeights()).cwiseAbs().maxCoeff());
-  r.dualGap = cost - (a.normalizedWeights().dot(r.u) + b.normalizedWeights().dot(r.v));
-  bool unique = true;
-  for (int i = 0; i < pr.n(); ++i) unique = unique && ties[std::size_t(i)] <= basicPerRow[std::size_t(i)];
-  r.planUnique = unique;
-
+  fillPotentials(a, b, pr, out, 4.0 * tol, &r, &ties);
+  fillPlan(a, b, pr, out, ties, &r);
   if (r.status == ExactOtStatus::IterationLimit)
     return finish("pivot limit of " + std::to_string(options.maxPivots) + " reached before optimality");
-  if (warm) {
-    auto next = std::make_shared<ExactWarmState>();
-    next->p = options.p;
-    next->massA = massA;
-    next->massB = massB;
-    for (const auto& f : out.basis) {
-      const auto [i, j] = out.arcs[std::size_t(f.arc)];
-      next->basisArcs.push_back({pr.rowA[std::size_t(i)], pr.rowB[std::size_t(j)]});
-      next->basisFlows.push_back(f.flow);
-    }
-    for (int node : out.roots)
-      next->roots.push_back(node < pr.n() ? pr.rowA[std::size_t(node)] : int(a.size()) + pr.rowB[std::size_t(node - pr.n())]);
-    for (const auto& [i, j] : out.added) next->addedArcs.push_back({pr.rowA[std::size_t(i)], pr.rowB[std::size_t(j)]});
-    *warm = std::move(next);
-  }
+  if (warm) *warm = packWarmState(pr, a.size(), b.size(), out.basis, out.roots, out.added);
   return finish({});
 }
 

@@ -2,13 +2,20 @@
 //   min_π Σ π_ij ‖x_i − y_j‖^p  s.t.  Σ_j π_ij = a_i,  Σ_i π_ij = b_j,  π >= 0,
 // with a, b the normalised weights; the value reported is W_p = (optimal cost)^(1/p).
 //
-// Method: network simplex (see network_simplex.h) with column generation. The first
-// restricted problem holds each point's k nearest points on the other side plus a greedy
-// starting basis; after each restricted optimum, every one of the n·m pairs is priced from
-// coordinates and the violated arcs are added, until none is left. The answer is therefore
-// exact for the full problem (the final pricing is the certificate), while memory stays
-// O(n + m + arcs added). Dual potentials: u_i + v_j <= c_ij for every pair (u is the
-// c-transform of v), equality up to the tolerance on the support.
+// Method: network simplex (see network_simplex.h) with column generation. The restricted
+// problem holds each point's k nearest points on the other side plus a starting basis;
+// after each restricted optimum, every one of the n·m pairs is priced from coordinates
+// (exact_pricing.h; a tree of the sinks skips boxes that cannot violate) and the violated
+// arcs are added, until none is left. The answer is therefore exact for the full problem
+// (the final pricing is the certificate), while memory stays O(n + m + arcs added).
+// Large problems start coarse-to-fine (exact_multiscale.h): groups of about four points are
+// solved first and their optimum seeds the start. A warm start reuses the previous basis.
+// Dual potentials: u_i + v_j <= c_ij for every pair (u is the c-transform of v), equality
+// up to the tolerance on the support.
+//
+// Measured choices (tests/bench/RESULTS-exact-ot.md): greedy beats the north-west start,
+// the coarse-to-fine start beats both by 1.6-2x, and column generation is what lets the
+// solver skip the n·m arcs a plain network simplex must hold.
 //
 // Units: cost, u and v in (coordinate units)^p; value in coordinate units; plan masses under
 // the normalised weights (summing to 1).
@@ -43,7 +50,7 @@ struct ExactOtOptions {
   double p = 1.0;                 // ground cost ‖x − y‖^p, p >= 1
   double tolerance = 1e-12;       // an arc may enter when its reduced cost < −tolerance·S,
                                   // S = (bounding-box diagonal)^p; in (0, 1e-3]
-  long long maxPivots = 2000000000;  // iteration limit over all rounds, >= 0
+  long long maxPivots = 2000000000;  // iteration limit over all levels and rounds, >= 0
   int neighbours = 6;             // candidate arcs per point (k nearest), >= 0
   int warmNeighbours = 0;         // the same for warm starts, which begin from the old
                                   // basis and the arcs pricing added last time (measured:
@@ -52,7 +59,9 @@ struct ExactOtOptions {
   InitialBasis initial = InitialBasis::Greedy;  // start of the coarsest (or only) level
   bool multiscale = true;         // start large problems from a solve on grouped points
   int groupSize = 4;              // points per group on each coarser level, >= 2
-  int coarsestSize = 256;         // no coarser level once a side has at most this many points
+  int guidedArcs = 8;             // arcs per point chosen by the coarse potentials, >= 0
+  int coarsestSize = 256;         // no coarser level once a side has at most this many
+                                  // points, >= 1
 };
 
 struct ExactOtResult {
@@ -64,11 +73,11 @@ struct ExactOtResult {
   Eigen::VectorXd u, v;           // potentials per input row of A and of B
   long long pivots = 0;
   long long degeneratePivots = 0;
-  int rounds = 0;                 // pricing passes over all pairs
+  int rounds = 0;                 // pricing passes over all pairs (all levels)
   int arcs = 0;                   // arcs the restricted problems held at the end
   double seconds = 0.0;
   double marginalError = NAN;     // max |row or column sum of π − weight|
-  double dualGap = NAN;           // cost − (Σ a_i u_i + Σ b_j v_j), >= 0
+  double dualGap = NAN;           // cost − (Σ a_i u_i + Σ b_j v_j): 0 up to rounding
   bool warmStarted = false;
   std::optional<bool> planUnique; // false: some arc off the basis has zero reduced cost
 };

@@ -4,11 +4,13 @@
 // has not added yet and adds the violated ones).
 //
 // Method: Dantzig's primal simplex on the spanning-tree basis of the flow network (Ahuja,
-// Magnanti & Orlin 1993, "Network Flows", ch. 11), block-search pricing (Grigoriadis 1986,
-// Math. Prog. Study 26), and Cunningham's strongly feasible trees (Math. Prog. 11 (1976)
-// 105–116) so that degenerate pivots cannot cycle: every zero-flow tree arc points towards
-// the root, and the leaving arc is the last blocking arc met when the cycle is walked in its
-// orientation from the apex (AMO Sec. 11.5–11.6).
+// Magnanti & Orlin 1993, "Network Flows", ch. 11 (mem)), block-search pricing (Grigoriadis
+// 1986, Math. Prog. Study 26 (mem)), and Cunningham's strongly feasible trees (Math. Prog.
+// 11 (1976) 105–116 (mem)) so that degenerate pivots cannot cycle: every zero-flow tree arc
+// points towards the root, and the leaving arc is the last blocking arc met when the cycle
+// is walked in its orientation from the apex (AMO Sec. 11.5–11.6 (mem)). The tree is kept
+// as a preorder thread with subtree sizes, so a pivot costs the cycle, the re-rooted path,
+// and one sweep over the smaller side of the cut for the potentials.
 //
 // Masses are integers (the caller scales the weights to a common total), so flows are exact
 // and degeneracy is detected exactly. Costs and node potentials are doubles. An extra root
