@@ -385,7 +385,7 @@ void MainWindow::submitLive() {
   req.measures = MeasureRegistry::instance().all();
   req.planId = field_->planId();
   req.entropicPlan = field_->entropicPlanShown();
-  req.interactive = doc_->previewing();
+  req.interactive = doc_->previewing() || sweep_->plots()->dragging();
   if (field_->potentialShown()) req.potential = field_->view()->potentialGrid();
   if (!s.sweep.validate()) {
     FamilyView f;

@@ -44,6 +44,8 @@ class SweepPlots : public QWidget {
   /// Moves the cursor (nullopt hides it); does not emit thetaChanged.
   void setCursor(std::optional<double> theta);
   std::optional<double> cursor() const { return cursor_; }
+  /// True while the user drags the cursor (live updates then defer slow measures).
+  bool dragging() const { return dragging_; }
 
   QCustomPlot* plot() const { return plot_; }
   QCPAxisRect* valueRect() const { return values_; }
