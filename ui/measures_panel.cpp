@@ -127,10 +127,11 @@ void MeasuresPanel::build() {
     for (const auto& p : m->params()) {
       auto* child = new QTreeWidgetItem(item);
       const QString key = QString::fromStdString(p.key);
-      child->setText(kName, key + (p.unit.empty() ? QString() : "  (" + QString::fromStdString(p.unit) + ")"));
+      child->setText(kName, key);
       child->setData(kName, kIdRole, id);
       child->setData(kValue, kKeyRole, key);
-      child->setText(kStatus, describeRange(p));
+      child->setText(kChange, QString::fromStdString(p.unit));
+      child->setText(kStatus, rangeShort(p));
       const QString tip = QString::fromStdString(p.help) + "\n" + tr("Valid: %1").arg(describeRange(p)) +
                           "\n" + tr("Default: %1").arg(QString::fromStdString(p.defaultValue)) +
                           "\n" + tr("Double-click the value to change it.");

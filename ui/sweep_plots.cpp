@@ -71,7 +71,7 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   layout->addWidget(plot_, 1);
   hint_->setWordWrap(true);
   hint_->setVisible(false);
-  hint_->setStyleSheet("color: #8a4b00;");
+  hint_->setStyleSheet("color: #555555;");
   plot_->setObjectName("sweepPlot");
   plot_->setToolTip(tr("Top: each measure against θ. Bottom: dD/dθ (analytic where the theory gives it, "
                        "finite differences otherwise). Click or drag to move the θ cursor; double-click releases it."));
@@ -217,6 +217,7 @@ void SweepPlots::setStale(bool stale) {
   stale_ = stale;
   showHint(stale ? tr("The clouds or settings changed since this sweep: run it again to update the curves.")
                  : message_);
+  hint_->setStyleSheet(stale ? "color: #8a4b00;" : "color: #555555;");
   rebuild();
 }
 
