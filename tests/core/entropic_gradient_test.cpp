@@ -5,6 +5,7 @@
 // 1-D monotone couplings, unique for points in general position.
 #include <gtest/gtest.h>
 
+#include <ostream>
 #include <random>
 
 #include "measures/entropic_measure.h"
@@ -21,6 +22,8 @@ struct GradientCase {
   std::vector<std::pair<std::string, std::string>> settings;
   double tolerance;  // on |analytic − central difference|
 };
+
+void PrintTo(const GradientCase& c, std::ostream* os) { *os << c.name; }
 
 Cloud cloud(int n, unsigned seed, double shiftX) {
   std::mt19937 rng(seed);
