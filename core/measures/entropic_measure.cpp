@@ -3,6 +3,7 @@
 #include <cmath>
 #include <memory>
 
+#include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
 
 namespace barrow {
@@ -11,9 +12,11 @@ namespace {
 
 constexpr double kAutoFraction = 1.0 / 20.0;  // auto ε = (D/20)^p: a blur of 5 % of the extent
 
-// Potentials kept between calls of a sweep (same sizes, same ε and p).
+// Potentials kept between calls of a sweep (same sizes, same ε and p), with the points they
+// were solved on so that they can be carried to the moved clouds (sinkhorn_carry.h).
 struct EntropicWarm : WarmState {
   Eigen::VectorXd f, g;
+  Eigen::MatrixX2d x, y;
   double epsilon = 0.0;
   int p = 0;
 };
@@ -117,10 +120,14 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
 
   SinkhornStart start;
+  Eigen::VectorXd f0, g0;
   if (ctx.warm && *ctx.warm) {
     if (auto* w = dynamic_cast<EntropicWarm*>(ctx.warm->get()); w && w->p == o.p && w->epsilon == o.epsilon) {
-      start.f = &w->f;
-      start.g = &w->g;
+      f0 = w->f;
+      g0 = w->g;
+      carryPotentials(w->x, w->y, a.points, b.points, o.p, f0, g0);
+      start.f = &f0;
+      start.g = &g0;
     }
   }
   kernel::RowWorkers team;
@@ -149,6 +156,8 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
     auto w = std::make_shared<EntropicWarm>();
     w->f = sr.f;
     w->g = sr.g;
+    w->x = a.points;
+    w->y = b.points;
     w->epsilon = o.epsilon;
     w->p = o.p;
     *ctx.warm = w;

@@ -3,7 +3,9 @@
 #include <algorithm>
 #include <memory>
 
+#include "cloud/congruence.h"
 #include "measures/entropic_measure.h"
+#include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
 
 namespace barrow {
@@ -12,16 +14,37 @@ namespace {
 
 const char* kGroup = "sinkhorn";
 
-// Potentials of the three problems, kept between calls of a sweep.
+// Potentials of the three problems, kept between calls of a sweep, with the clouds the self
+// terms were solved on: a self term depends only on distances within its cloud, so it is
+// reused as it is when the cloud has only been moved rigidly (B never moves in a sweep; A
+// moves rigidly under the shift and rotate families).
 struct SinkhornWarm : WarmState {
-  Eigen::VectorXd fab, gab, faa, fbb;
+  Eigen::VectorXd fab, gab;
+  SinkhornResult aa, bb;
+  Cloud aaCloud, bbCloud;
   double epsilon = 0.0;
   int p = 0;
+  double tolerance = 0.0;
 };
 
 struct ThreeSolves {
   SinkhornResult ab, aa, bb;
+  bool aaReused = false, bbReused = false;
 };
+
+// A converged self term of `w` that also holds for `x` (x congruent to the cloud it was
+// solved on), or null.
+const SinkhornResult* reusableSelf(const SinkhornWarm* w, const Cloud& x) {
+  if (!w) return nullptr;
+  for (const auto& [cloud, result] : {std::pair{&w->aaCloud, &w->aa}, std::pair{&w->bbCloud, &w->bb}})
+    if (result->status == SinkhornStatus::Converged && rigidlyCongruent(*cloud, x)) return result;
+  return nullptr;
+}
+
+// The previous self solve as a start when the sizes fit, else null.
+const Eigen::VectorXd* selfStart(const SinkhornResult& prev, Eigen::Index n) {
+  return prev.f.size() == n ? &prev.f : nullptr;
+}
 
 // Progress of one sub-solve mapped into [lo, hi] of the caller's range.
 RunControl subControl(const RunControl* c, double lo, double hi) {
@@ -39,19 +62,38 @@ ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, 
   const SinkhornWarm* w = nullptr;
   if (ctx.warm && *ctx.warm) {
     w = dynamic_cast<const SinkhornWarm*>(ctx.warm->get());
-    if (w && (w->p != o.p || w->epsilon != o.epsilon)) w = nullptr;
+    if (w && (w->p != o.p || w->epsilon != o.epsilon || w->tolerance != o.tolerance)) w = nullptr;
   }
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
   const RunControl* c = ctx.control;
   ThreeSolves t;
   const RunControl cab = subControl(c, 0.0, 0.6), caa = subControl(c, 0.6, 0.8), cbb = subControl(c, 0.8, 1.0);
   SinkhornStart start;
-  if (w) start = {&w->fab, &w->gab};
+  Eigen::VectorXd f0, g0;
+  if (w) {
+    f0 = w->fab;
+    g0 = w->gab;
+    carryPotentials(w->aaCloud.points, w->bbCloud.points, a.points, b.points, o.p, f0, g0);
+    start = {&f0, &g0};
+  }
   t.ab = solveSinkhorn(a.points, wa, b.points, wb, o, c ? &cab : nullptr, &start, &team);
   if (t.ab.status == SinkhornStatus::Cancelled || t.ab.status == SinkhornStatus::InvalidInput) return t;
-  t.aa = solveSinkhornSymmetric(a.points, wa, o, c ? &caa : nullptr, w ? &w->faa : nullptr, &team);
+  if (const SinkhornResult* same = reusableSelf(w, a)) {
+    t.aa = *same;
+    t.aaReused = true;
+  } else {
+    t.aa = solveSinkhornSymmetric(a.points, wa, o, c ? &caa : nullptr, w ? selfStart(w->aa, a.size()) : nullptr, &team);
+  }
   if (t.aa.status == SinkhornStatus::Cancelled || t.aa.status == SinkhornStatus::InvalidInput || !withB) return t;
-  t.bb = solveSinkhornSymmetric(b.points, wb, o, c ? &cbb : nullptr, w ? &w->fbb : nullptr, &team);
+  if (const SinkhornResult* same = reusableSelf(w, b)) {
+    t.bb = *same;
+    t.bbReused = true;
+  } else if (t.aa.status == SinkhornStatus::Converged && rigidlyCongruent(a, b)) {
+    t.bb = t.aa;  // B is A moved rigidly: the same self term
+    t.bbReused = true;
+  } else {
+    t.bb = solveSinkhornSymmetric(b.points, wb, o, c ? &cbb : nullptr, w ? selfStart(w->bb, b.size()) : nullptr, &team);
+  }
   return t;
 }
 
@@ -71,7 +113,8 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
 
   Result r;
   r.details = entropicDetails(s);
-  r.iterations = t.ab.iterations + t.aa.iterations + t.bb.iterations;
+  // Iterations run by this call (a reused self term cost none).
+  r.iterations = t.ab.iterations + (t.aaReused ? 0 : t.aa.iterations) + (t.bbReused ? 0 : t.bb.iterations);
   const std::pair<const char*, const SinkhornResult*> parts[] = {
       {"OT_eps(A,B)", &t.ab}, {"OT_eps(A,A)", &t.aa}, {"OT_eps(B,B)", &t.bb}};
   r.message.clear();
@@ -108,14 +151,19 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   }
   r.u = t.ab.f - t.aa.f;
   r.v = t.ab.g - t.bb.f;
+  r.details["aa_reused"] = t.aaReused;  // self term taken from a rigidly moved cloud solved before
+  r.details["bb_reused"] = t.bbReused;
   if (ctx.warm) {
     auto w = std::make_shared<SinkhornWarm>();
     w->fab = std::move(t.ab.f);
     w->gab = std::move(t.ab.g);
-    w->faa = std::move(t.aa.f);
-    w->fbb = std::move(t.bb.f);
+    w->aa = std::move(t.aa);
+    w->bb = std::move(t.bb);
+    w->aaCloud = a;
+    w->bbCloud = b;
     w->epsilon = s.options.epsilon;
     w->p = s.options.p;
+    w->tolerance = s.options.tolerance;
     *ctx.warm = w;
   }
   return r;

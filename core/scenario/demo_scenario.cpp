@@ -4,11 +4,11 @@
 
 namespace barrow {
 
-Session demoSession() {
+Session demoSession(int pointsPerBatch) {
   Session s;
   ShapeSpec batch;
   batch.shape = "segment";
-  batch.count = 300;
+  batch.count = pointsPerBatch;
   batch.center = {0.0, 0.0};
   batch.spread = 1.0;      // a scan line of length 2
   batch.angle = M_PI / 2;  // vertical

@@ -7,7 +7,8 @@
 
 namespace barrow {
 
-/// Deterministic: the same clouds and settings every run.
-Session demoSession();
+/// Deterministic: the same clouds and settings every run. The application ships 300 points
+/// per batch; benchmarks also use larger batches of the same scene.
+Session demoSession(int pointsPerBatch = 300);
 
 }  // namespace barrow

@@ -9,13 +9,16 @@ namespace barrow {
 
 namespace {
 
+// `warm` holds the state evaluate() left for (at, b) when not null: the gradient of a measure
+// that needs its solver's state again (sinkhorn's potentials) then costs no new solve.
 std::optional<Eigen::MatrixX2d> tryGradient(const Measure& m, const Cloud& at, const Cloud& b,
                                             const ParamSet& frozen, const Result& r,
-                                            const RunControl* control) {
+                                            const RunControl* control, std::shared_ptr<WarmState>* warm) {
   std::string error;
   EvalContext ctx;
   ctx.params = resolveParams(m, frozen, &error);
   ctx.control = control;
+  ctx.warm = warm;
   ctx.wantPlan = true;
   if (!error.empty()) return std::nullopt;
   try {
@@ -53,10 +56,12 @@ SweepJob::SweepJob(const Measure& m, const ParamSet& user, const Cloud& a0, cons
   req.params = frozen_;
   req.control = control;
   req.wantPlan = wantAnalytic;
+  std::shared_ptr<WarmState> state;
+  req.warm = &state;
   const Result r = evaluateMeasure(m, a0, b, req);
   details_ = r.details;
   if (wantAnalytic && r.usable() && std::isfinite(r.value))
-    analytic_ = tryGradient(m, a0, b, frozen_, r, control).has_value();
+    analytic_ = tryGradient(m, a0, b, frozen_, r, control, &state).has_value();
 }
 
 SweepCell SweepJob::evaluate(const Cloud& at, const Cloud& b, const Eigen::MatrixX2d& velocity,
@@ -70,7 +75,9 @@ SweepCell SweepJob::evaluate(const Cloud& at, const Cloud& b, const Eigen::Matri
   EvalRequest req;
   req.params = frozen_;
   req.control = control;
-  req.warm = warm;
+  // Without warm starts between θ, the state still passes from this value to its gradient.
+  std::shared_ptr<WarmState> local;
+  req.warm = warm ? warm : (analytic_ ? &local : nullptr);
   req.wantPlan = analytic_;
   const Result r = evaluateMeasure(*m_, at, b, req);
   c.status = r.status;
@@ -80,7 +87,7 @@ SweepCell SweepJob::evaluate(const Cloud& at, const Cloud& b, const Eigen::Matri
   if (r.status != Status::Ok) c.message = r.message;
   c.oneSided = planNotUnique(r.details);
   if (analytic_ && std::isfinite(c.value) && velocity.rows() == at.size()) {
-    if (auto g = tryGradient(*m_, at, b, frozen_, r, control)) {
+    if (auto g = tryGradient(*m_, at, b, frozen_, r, control, req.warm)) {
       c.slope = (g->array() * velocity.array()).sum();
       c.analyticSlope = true;
     }

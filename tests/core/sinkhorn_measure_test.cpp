@@ -104,9 +104,43 @@ TEST(SinkhornMeasureTest, WarmStartThroughTheContext) {
   const Result cold = evaluateMeasure(SinkhornMeasure(), a, b, request(0.01, 2, 1e-9));
   const Result hot = evaluateMeasure(SinkhornMeasure(), a, b, req);
   EXPECT_TRUE(hot.details["ab_warm_start"].get<bool>());
-  EXPECT_TRUE(hot.details["bb_warm_start"].get<bool>());
+  // A shift moves A rigidly and B stays: both self terms are taken over, not solved again.
+  EXPECT_TRUE(hot.details["aa_reused"].get<bool>());
+  EXPECT_TRUE(hot.details["bb_reused"].get<bool>());
+  EXPECT_FALSE(cold.details["aa_reused"].get<bool>());
   EXPECT_LT(hot.iterations, cold.iterations);
   EXPECT_NEAR(hot.value, cold.value, 1e-9);
+}
+
+// Self terms depend only on distances within a cloud (the cost is |x−y|^p), so a rotated A
+// keeps OT_ε(a, a) and its potentials point by point; a stretched A does not.
+TEST(SinkhornMeasureTest, SelfTermReusedOnlyAfterARigidMove) {
+  Cloud a = cloud(50, 14, 0.0);
+  const Cloud b = cloud(40, 15, 0.7);
+  std::shared_ptr<WarmState> warm;
+  EvalRequest req = request(0.05, 2, 1e-10);
+  req.warm = &warm;
+  evaluateMeasure(SinkhornMeasure(), a, b, req);
+
+  const double t = 0.4;  // radians, about the origin
+  Cloud rotated = a;
+  rotated.points.col(0) = std::cos(t) * a.points.col(0) - std::sin(t) * a.points.col(1);
+  rotated.points.col(1) = std::sin(t) * a.points.col(0) + std::cos(t) * a.points.col(1);
+  const Result hot = evaluateMeasure(SinkhornMeasure(), rotated, b, req);
+  const Result cold = evaluateMeasure(SinkhornMeasure(), rotated, b, request(0.05, 2, 1e-10));
+  EXPECT_TRUE(hot.details["aa_reused"].get<bool>());
+  EXPECT_NEAR(hot.details["ot_aa"].get<double>(), cold.details["ot_aa"].get<double>(), 1e-9);
+  EXPECT_NEAR(hot.value, cold.value, 1e-9);
+  // Potentials agree up to the additive constant the dual leaves free.
+  const Eigen::VectorXd du = hot.u - cold.u;
+  EXPECT_LT((du.array() - du.mean()).abs().maxCoeff(), 1e-7);
+
+  Cloud stretched = rotated;
+  stretched.points.col(0) *= 1.05;
+  const Result moved = evaluateMeasure(SinkhornMeasure(), stretched, b, req);
+  EXPECT_FALSE(moved.details["aa_reused"].get<bool>());
+  EXPECT_TRUE(moved.details["aa_warm_start"].get<bool>());  // solved, from the old potentials
+  EXPECT_NEAR(moved.value, evaluateMeasure(SinkhornMeasure(), stretched, b, request(0.05, 2, 1e-10)).value, 1e-9);
 }
 
 TEST(SinkhornMeasureTest, RunningOutOfIterationsNamesTheTerm) {
