@@ -80,7 +80,8 @@ void readSetting(SweepResult& r, std::map<std::string, std::string>& perMeasure,
   else if (key == "refine_tolerance") r.refineTolerance = settingNumber(key, v, line);
   else if (key == "refined_points") r.refinedPoints = int(settingNumber(key, v, line));
   else if (key == "refine_budget_hit") r.refineBudgetHit = v == "true";
-  else if (key.rfind("frozen.", 0) == 0 || key.rfind("gradient.", 0) == 0) perMeasure[key] = v;
+  else if (key.rfind("frozen.", 0) == 0 || key.rfind("rules.", 0) == 0 || key.rfind("gradient.", 0) == 0)
+    perMeasure[key] = v;
 }
 
 }  // namespace
@@ -105,6 +106,9 @@ std::string formatSweepCsv(const SweepResult& r) {
     std::vector<std::string> kv;
     for (const auto& [k, v] : ser.frozen.values()) kv.push_back(k + "=" + v);
     o << "# frozen." << ser.id << "=" << joined(kv, ' ') << "\n";
+    kv.clear();
+    for (const auto& [k, v] : ser.rules.values()) kv.push_back(k + "=" + v);
+    o << "# rules." << ser.id << "=" << joined(kv, ' ') << "\n";
     o << "# gradient." << ser.id << "=" << ser.gradientMethod << "\n";
   }
   o << "theta";
@@ -196,11 +200,12 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
   for (auto& s : r.series) {
     ids.push_back(s.id);
     if (auto it = perMeasure.find("gradient." + s.id); it != perMeasure.end()) s.gradientMethod = it->second;
-    if (auto it = perMeasure.find("frozen." + s.id); it != perMeasure.end()) {
-      std::istringstream kv(it->second);
-      std::string item;
-      while (kv >> item) s.frozen.assign(item);
-    }
+    for (auto [prefix, set] : {std::pair{"frozen.", &s.frozen}, std::pair{"rules.", &s.rules}})
+      if (auto it = perMeasure.find(prefix + s.id); it != perMeasure.end()) {
+        std::istringstream kv(it->second);
+        std::string item;
+        while (kv >> item) set->assign(item);
+      }
   }
   r.settings.measures = ids;
   return Loaded<SweepResult>::success(std::move(r));

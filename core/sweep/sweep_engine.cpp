@@ -145,6 +145,7 @@ SweepSeries assembleSeries(const SweepJob& job, std::size_t j, const std::vector
   SweepSeries ser;
   ser.id = job.measure().id();
   ser.frozen = job.frozen();
+  ser.rules = job.rules();
   ser.details = job.referenceDetails();
   ser.gradientMethod = job.analytic() ? "analytic" : "finite-difference";
   for (const Row* r : order) {

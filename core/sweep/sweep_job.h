@@ -33,6 +33,8 @@ class SweepJob {
 
   const Measure& measure() const { return *m_; }
   const ParamSet& frozen() const { return frozen_; }
+  /// The settings freezing replaced, as the user gave them ("auto", "median", ...).
+  const ParamSet& rules() const { return rules_; }
   bool analytic() const { return analytic_; }
   const std::string& setupError() const { return setupError_; }
   const nlohmann::json& referenceDetails() const { return details_; }
@@ -44,6 +46,7 @@ class SweepJob {
  private:
   const Measure* m_;
   ParamSet frozen_;
+  ParamSet rules_;
   bool analytic_ = false;
   std::string setupError_;
   nlohmann::json details_ = nlohmann::json::object();

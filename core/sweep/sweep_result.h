@@ -21,6 +21,7 @@ struct SweepSeries {
   std::vector<bool> oneSided;         // true where the exact plan is not unique (slope one-sided)
   std::string gradientMethod;         // "analytic" or "finite-difference"
   ParamSet frozen;                    // the settings used at every θ (frozen at the reference)
+  ParamSet rules;                     // the data-dependent settings freezing replaced, as given
   nlohmann::json details = nlohmann::json::object();  // estimator settings etc. at the reference
   std::string message;                // first failure's reason; empty when every θ succeeded
 };

@@ -35,6 +35,7 @@ SweepResult sample() {
   b.gradientMethod = "finite-difference";
   b.frozen.set("mmd.sigma", "0.73");
   b.frozen.set("mmd.estimator", "biased");
+  b.rules.set("mmd.sigma", "median");
   r.series = {a, b};
   return r;
 }
@@ -53,7 +54,7 @@ TEST(SweepCsvTest, HeaderRowsAndCellsFollowTheContract) {
   EXPECT_EQ(data[4], "30,,4.5,,-4");                      // failed: empty value and slope
   for (const char* setting : {"# family=rotate", "# center=0.5,-1.25", "# from=-30", "# to=30", "# steps=3",
                               "# reference=0", "# seed=", "# frozen.mmd=mmd.estimator=biased mmd.sigma=0.73",
-                              "# gradient.w1=analytic", "# refine_tolerance=6e-04", "# threads=2"})
+                              "# gradient.w1=analytic", "# rules.mmd=mmd.sigma=median", "# refine_tolerance=6e-04", "# threads=2"})
     EXPECT_NE(text.find(setting), std::string::npos) << setting;
 }
 
@@ -74,6 +75,8 @@ TEST(SweepCsvTest, RoundTripKeepsEveryNumberAndSetting) {
   EXPECT_EQ(r.series[1].slope, in.series[1].slope);
   EXPECT_EQ(r.series[0].gradientMethod, "analytic");
   EXPECT_EQ(r.series[1].frozen.text("mmd.sigma"), "0.73");
+  EXPECT_EQ(r.series[1].rules.text("mmd.sigma"), "median");
+  EXPECT_TRUE(r.series[0].rules.values().empty());
   EXPECT_EQ(r.settings.family, "rotate");
   ASSERT_TRUE(r.settings.center);
   EXPECT_EQ((*r.settings.center)[1], -1.25);
