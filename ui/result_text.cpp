@@ -83,7 +83,7 @@ QString detailsHtml(const Measure& m, const Result* r) {
     h += "<br>" + QString::fromStdString(r->message).toHtmlEscaped();
   if (r->iterations > 0) h += "<br>" + QObject::tr("%n iteration(s)", "", r->iterations);
   if (r->details.is_object() && !r->details.empty()) {
-    h += "<br>" + QObject::tr("Settings used:") + " <tt>";
+    h += "<br>" + QObject::tr("Settings and diagnostics:") + " <tt>";
     bool first = true;
     for (const auto& [k, v] : r->details.items()) {
       h += (first ? "" : ", ") + QString::fromStdString(k).toHtmlEscaped() + " = " +
