@@ -8,6 +8,7 @@
 //   BM_MedianDistance/N exact median pairwise distance of N pooled points alone
 //   BM_Chamfer/n        Chamfer (two k-d trees + n + m threaded queries)
 //   BM_Hausdorff/n      Hausdorff
+//   BM_Frechet/n        Fréchet distance of the fitted Gaussians (weighted moments, 2×2 roots)
 //   BM_ChamferRepeated/n  Chamfer where A's n points sit on only 100 grid locations (repeated
 //                         points: each location is queried and indexed once)
 // Counter pairs_per_s: pair evaluations per second of wall time.
@@ -68,6 +69,7 @@ void BM_MmdMedian(benchmark::State& s) { runMeasure(s, "mmd", {}, 0); }
 void BM_Energy(benchmark::State& s) { runMeasure(s, "energy", {}, kernelPairs(double(s.range(0)))); }
 void BM_Chamfer(benchmark::State& s) { runMeasure(s, "chamfer", {}, 0); }
 void BM_Hausdorff(benchmark::State& s) { runMeasure(s, "hausdorff", {}, 0); }
+void BM_Frechet(benchmark::State& s) { runMeasure(s, "frechet", {}, 0); }
 
 void BM_ChamferRepeated(benchmark::State& state) {
   const int n = int(state.range(0));
@@ -118,6 +120,7 @@ BENCHMARK(BM_Energy)->Arg(2000)->Arg(5000)->Arg(20000)->Unit(benchmark::kMillise
 BENCHMARK(BM_MedianDistance)->Arg(2000)->Arg(40000)->Unit(benchmark::kMillisecond)->UseRealTime();
 BENCHMARK(BM_Chamfer)->Arg(10000)->Arg(100000)->Unit(benchmark::kMillisecond)->UseRealTime();
 BENCHMARK(BM_Hausdorff)->Arg(10000)->Arg(100000)->Unit(benchmark::kMillisecond)->UseRealTime();
+BENCHMARK(BM_Frechet)->Arg(100000)->Arg(1000000)->Unit(benchmark::kMillisecond)->UseRealTime();
 BENCHMARK(BM_ChamferRepeated)->Arg(100000)->Unit(benchmark::kMillisecond)->UseRealTime();
 
 }  // namespace
