@@ -6,6 +6,7 @@
 
 #include "cli/cli_common.h"
 #include "cli/commands.h"
+#include "cli/details_text.h"
 #include "measures/evaluate.h"
 
 namespace barrow::cli {
@@ -31,10 +32,10 @@ int runMeasure(const std::vector<std::string>& argv) {
     if (!r.message.empty()) row["message"] = r.message;
     out["measures"].push_back(row);
     if (!args.flag("json")) {
-      std::printf("%-10s %-22s %-14s %8.3f ms  %s\n", m->id().c_str(), formatNumber(r.value).c_str(),
-                  statusName(r.status), r.seconds * 1e3,
-                  (r.details.empty() ? std::string() : r.details.dump()).c_str());
-      if (!r.message.empty()) std::printf("%-10s   note: %s\n", "", r.message.c_str());
+      std::printf("%-10s %-22s %-14s %8.3f ms\n", m->id().c_str(), formatNumber(r.value).c_str(),
+                  statusName(r.status), r.seconds * 1e3);
+      if (!r.message.empty()) std::printf("%-10s note: %s\n", "", r.message.c_str());
+      for (const auto& line : detailLines(r.details)) std::printf("%-10s %s\n", "", line.c_str());
     }
   }
   if (args.flag("json")) std::cout << out.dump() << "\n";

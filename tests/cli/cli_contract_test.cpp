@@ -1,6 +1,9 @@
 // barrow-cli from the outside: help, exit codes and one-line messages for bad input.
 #include <gtest/gtest.h>
 
+#include <sstream>
+#include <vector>
+
 #include "support/test_support.h"
 
 namespace barrow {
@@ -69,6 +72,26 @@ TEST(CliContractTest, BadSetParameterExitsTwo) {
   EXPECT_EQ(cli("measure --a " + a + " --b " + b + " --set novalue", nullptr, &err), 2);
   EXPECT_EQ(cli("measure --a " + a + " --b " + b + " --measures nosuch", nullptr, &err), 2);
   EXPECT_NE(err.find("unknown measure 'nosuch'"), std::string::npos) << err;
+}
+
+// Text output (common practice for a command-line table): one line per measure with id, value,
+// status and time, then its details as indented key=value lines — readable, not raw JSON.
+TEST(CliContractTest, MeasureTextOutputIsOneRowPerMeasureWithIndentedDetails) {
+  const std::string a = test::samplesDir() + "/ring_vs_blob/a.csv";
+  const std::string b = test::samplesDir() + "/ring_vs_blob/b.csv";
+  std::string out, err;
+  ASSERT_EQ(cli("measure --a " + a + " --b " + b + " --measures w1,mmd", &out, &err), 0) << err;
+  std::istringstream in(out);
+  std::string line;
+  std::vector<std::string> rows, details;
+  while (std::getline(in, line)) (line.rfind("  ", 0) == 0 ? details : rows).push_back(line);
+  ASSERT_EQ(rows.size(), 2u) << out;
+  EXPECT_EQ(rows[0].rfind("w1 ", 0), 0u);
+  EXPECT_EQ(rows[1].rfind("mmd ", 0), 0u);
+  EXPECT_NE(out.find("pivots="), std::string::npos) << out;
+  EXPECT_NE(out.find("sigma_rule="), std::string::npos) << out;
+  EXPECT_EQ(out.find('{'), std::string::npos) << out;
+  for (const auto& d : details) EXPECT_LE(d.size(), 200u) << d;
 }
 
 }  // namespace
