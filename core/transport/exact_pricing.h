@@ -2,7 +2,9 @@
 // (nothing of size n × m is stored), and the c-transform of a potential (Villani 2009,
 // "Optimal Transport: Old and New", Def. 5.7): v^c(x) = min_j (c(x, y_j) − v_j).
 // Both run per source over a SiteTree of the sinks, which skips whole boxes of sinks that
-// cannot score low enough; the answers are those of a scan over every pair.
+// cannot score low enough; the answers are those of a scan over every pair. Sources are
+// split over all cores in contiguous chunks; results come back in source order, so a solve
+// makes the same pivots on any number of cores.
 #pragma once
 
 #include <Eigen/Core>
