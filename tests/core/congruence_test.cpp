@@ -3,25 +3,14 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
-#include <random>
 
 #include "cloud/congruence.h"
+#include "support/test_support.h"
 
 namespace barrow {
 namespace {
 
-Cloud randomCloud(int n, unsigned seed, double offset = 0.0) {
-  std::mt19937 rng(seed);
-  std::normal_distribution<double> g(0.0, 1.0);
-  std::uniform_real_distribution<double> w(0.1, 1.0);
-  Eigen::MatrixX2d p(n, 2);
-  Eigen::VectorXd wt(n);
-  for (int i = 0; i < n; ++i) {
-    p.row(i) << offset + g(rng), offset + g(rng);
-    wt(i) = w(rng);
-  }
-  return Cloud("c", p, wt);
-}
+Cloud randomCloud(int n, unsigned seed, double offset = 0.0) { return test::gaussianCloud(n, seed, offset); }
 
 Cloud rotated(const Cloud& c, double radians, Eigen::RowVector2d about, Eigen::RowVector2d then) {
   Cloud out = c;

@@ -109,4 +109,17 @@ std::optional<Eigen::MatrixX2d> analyticGradientA(const Measure& m, const Cloud&
   return m.gradientA(a, b, ctx, r);
 }
 
+Cloud gaussianCloud(int n, unsigned seed, double offset, double spread, bool randomWeights) {
+  std::mt19937 rng(seed);
+  std::normal_distribution<double> g(0.0, spread);
+  std::uniform_real_distribution<double> w(0.1, 1.0);
+  Eigen::MatrixX2d p(n, 2);
+  Eigen::VectorXd wt = Eigen::VectorXd::Ones(n);
+  for (int i = 0; i < n; ++i) {
+    p.row(i) << offset + g(rng), offset + g(rng);
+    if (randomWeights) wt(i) = w(rng);
+  }
+  return Cloud("c", p, wt);
+}
+
 }  // namespace barrow::test

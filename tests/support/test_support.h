@@ -27,6 +27,10 @@ bool pythonHas(const std::string& modules);
 /// Runs a shell command; returns the exit code, stdout and stderr go to the strings.
 int runCommand(const std::string& cmd, std::string* out, std::string* err);
 
+/// n points with both coordinates offset + N(0, spread²) and weights uniform in [0.1, 1)
+/// (or all 1 when !randomWeights), from std::mt19937(seed): reproducible test data.
+Cloud gaussianCloud(int n, unsigned seed, double offset = 0.0, double spread = 1.0, bool randomWeights = true);
+
 /// A cloud as Python source "np.array([[x,y],...])" with full precision.
 std::string pyPoints(const Cloud& c);
 /// Normalised weights as "np.array([...])".
