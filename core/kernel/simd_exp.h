@@ -4,6 +4,8 @@
 // (truncation error < 5e-18 relative) and scaling by 2^k through the exponent bits.
 // Accuracy: within a few ulp of std::exp on [-708, 0] (checked in pair_sum_test).
 // Inputs below -708 give exactly 0 (e^-708 ~ 3e-308: nothing a kernel sum can notice).
+// The reduction does not depend on the sign of x: inputs up to 709.7 are exact as well (the
+// Sinkhorn passes, transport/kernel_pass_simd.h, use that; beyond it the result is +inf).
 #pragma once
 
 #include <cmath>
