@@ -36,7 +36,9 @@ QString changeText(const Result& now, const Result& ref) {
   }
   const double d = now.value - ref.value;
   if (d == 0) return QStringLiteral("0");
-  return (d > 0 ? "+" : "") + num(d);
+  // Three significant digits: a change is read for its size and sign, and "+1.54e-05" fits
+  // the column where five digits would be cut off.
+  return (d > 0 ? "+" : "") + QString::number(d, 'g', 3);
 }
 
 QString statusText(const Result& r) {
