@@ -34,6 +34,14 @@ void SegmentLayer::setPlan(const std::vector<PlanEntry>& plan, const Eigen::Matr
     mass_[k] = e.mass;
     maxMass_ = std::max(maxMass_, e.mass);
   }
+  // A vertex of the transport polytope has at most n + m − 1 entries; a spread-out (entropic)
+  // plan has many more of similar mass, whose segments would pile up into a solid sheet. The
+  // effective number of entries (Σm)²/Σm² measures the spread; opacities are scaled by
+  // (n + m)/that, so the picture keeps showing where the mass goes.
+  double sum = 0, sum2 = 0;
+  for (double m : mass_) sum += m, sum2 += m * m;
+  const double effective = sum2 > 0 ? sum * sum / sum2 : 1.0;
+  sparseness_ = std::min(1.0, double(a.rows() + b.rows()) / effective);
 }
 
 void SegmentLayer::clearPlan() {
@@ -89,7 +97,7 @@ void SegmentLayer::draw(QCPPainter* painter) {
   const double cut = threshold_ * maxMass_;
   const bool anyHighlight = hiIndex_ >= 0;
   // Opacity ∝ mass (at most 0.55, so dense plans do not hide the points), with a floor so
-  // light segments stay faintly visible; dimmed while a
+  // light segments stay faintly visible (all scaled down for spread-out plans); dimmed while a
   // point is hovered so that its own segments stand out. Opacities are binned into a few
   // levels and each level is drawn with one pen in one call: thousands of segments then
   // cost a few milliseconds instead of one pen change each.
@@ -111,7 +119,7 @@ void SegmentLayer::draw(QCPPainter* painter) {
     if (lines[std::size_t(level)].isEmpty()) continue;
     QColor c = color_;
     const double share = (level + 0.5) / kLevels;
-    c.setAlphaF(std::clamp(0.05 + 0.5 * share, 0.0, 1.0) * (anyHighlight ? 0.35 : 1.0));
+    c.setAlphaF(std::clamp((0.05 + 0.5 * share) * sparseness_, 0.0, 1.0) * (anyHighlight ? 0.35 : 1.0));
     pen.setColor(c);
     painter->setPen(pen);
     painter->drawLines(lines[std::size_t(level)]);

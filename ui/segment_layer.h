@@ -50,6 +50,7 @@ class SegmentLayer : public QCPAbstractPlottable {
   std::vector<std::array<double, 4>> seg_;  // x1, y1, x2, y2
   std::vector<double> mass_;
   double maxMass_ = 0;
+  double sparseness_ = 1.0;  // min(1, (n + m) / effective entries): 1 for a vertex of the polytope
   double threshold_ = 0;
   QColor color_{30, 30, 30};
   bool dashed_ = false;
