@@ -3,6 +3,8 @@
 #include <QComboBox>
 #include <QLineEdit>
 
+#include "measures/param_text.h"
+
 namespace barrow::ui {
 
 namespace {
@@ -36,21 +38,7 @@ QString describeRange(const ParamSpec& s) {
   return {};
 }
 
-QString rangeShort(const ParamSpec& s) {
-  QStringList words;
-  for (const auto& c : s.choices) words << QString::fromStdString(c);
-  if (s.kind == ParamKind::Boolean) return "true|false";
-  if (s.kind == ParamKind::Choice) return words.join("|");
-  const bool hasMin = s.min > -1e299, hasMax = s.max < 1e299;
-  QString r;
-  if (hasMin && hasMax) r = (s.minExclusive ? "(" : "[") + num(s.min) + ", " + num(s.max) + "]";
-  else if (hasMin) r = (s.minExclusive ? "> " : "≥ ") + num(s.min);
-  else if (hasMax) r = "≤ " + num(s.max);
-  else r = QObject::tr("any");
-  if (s.kind == ParamKind::RealPair) r += QObject::tr(" (or x,y)");
-  if (!words.isEmpty()) r += " | " + words.join("|");
-  return r;
-}
+QString rangeShort(const ParamSpec& s) { return QString::fromStdString(barrow::rangeShort(s)); }
 
 ParamDelegate::ParamDelegate(SpecLookup specOf, QObject* parent)
     : QStyledItemDelegate(parent), specOf_(std::move(specOf)) {}

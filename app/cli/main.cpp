@@ -7,6 +7,7 @@
 
 #include "cli/cli_common.h"
 #include "cli/commands.h"
+#include "cli/measures_help.h"
 
 namespace {
 
@@ -26,7 +27,7 @@ usage:
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
 Parameters: --set group.key=value, e.g. --set sinkhorn.epsilon=0.01 --set density.bin=0.25
 Measures: w1 w2 entropic sinkhorn sliced mmd energy frechet chamfer hausdorff
-          kl_ab kl_ba js tv hellinger
+          kl_ab kl_ba js tv hellinger   (formulas and parameters: barrow-cli measure --help)
 Exit codes: 0 ok, 2 bad input (the message names file, line and reason), 1 internal failure.
 Every value is an estimate from finite samples under the chosen settings.
 )";
@@ -49,6 +50,7 @@ int main(int argc, char** argv) {
   for (const auto& a : rest)
     if (a == "--help" || a == "-h") {
       std::fputs(kUsage, stdout);
+      if (cmd == "measure" || cmd == "sweep") std::fputs(("\n" + measuresHelp()).c_str(), stdout);
       return kExitOk;
     }
   try {

@@ -4,6 +4,7 @@
 #include <sstream>
 #include <vector>
 
+#include "measures/registry.h"
 #include "support/test_support.h"
 
 namespace barrow {
@@ -92,6 +93,18 @@ TEST(CliContractTest, MeasureTextOutputIsOneRowPerMeasureWithIndentedDetails) {
   EXPECT_NE(out.find("sigma_rule="), std::string::npos) << out;
   EXPECT_EQ(out.find('{'), std::string::npos) << out;
   for (const auto& d : details) EXPECT_LE(d.size(), 200u) << d;
+}
+
+// The issue asks for each measure's one-line formula in --help; checked against the registry.
+TEST(CliContractTest, MeasureHelpListsEveryMeasureWithFormulaAndParameters) {
+  std::string out, err;
+  ASSERT_EQ(cli("measure --help", &out, &err), 0) << err;
+  for (const Measure* m : MeasureRegistry::instance().all()) {
+    EXPECT_NE(out.find("  " + m->id() + " "), std::string::npos) << m->id();
+    EXPECT_NE(out.find(m->formula()), std::string::npos) << m->id();
+    for (const ParamSpec& p : m->params()) EXPECT_NE(out.find(p.key + " = " + p.defaultValue), std::string::npos) << p.key;
+  }
+  EXPECT_NE(out.find("sinkhorn.epsilon = auto, valid > 0 | auto"), std::string::npos) << out;
 }
 
 }  // namespace

@@ -1,0 +1,33 @@
+#include "cli/measures_help.h"
+
+#include <set>
+
+#include "measures/param_text.h"
+#include "measures/registry.h"
+
+namespace barrow::cli {
+
+std::string measuresHelp() {
+  std::string out = "Measures (id, name, formula; then their --set parameters: key = default, valid values, unit: meaning).\n"
+                    "Parameters of a shared group (density.*) are listed once, with the first measure using them.\n";
+  std::set<std::string> listed;
+  for (const Measure* m : MeasureRegistry::instance().all()) {
+    out += "\n  " + m->id() + std::string(m->id().size() < 10 ? 10 - m->id().size() : 1, ' ') + m->displayName() +
+           (m->cheap() ? "" : "  (slow: updates after the others in the GUI)") + "\n";
+    out += "            " + m->formula() + "\n";
+    for (const ParamSpec& p : m->params()) {
+      if (!listed.insert(p.key).second) {
+        if (p.key.rfind("density.", 0) == 0 && listed.insert("density-note:" + m->id()).second)
+          out += "            density.* as above\n";
+        continue;
+      }
+      out += "            " + p.key + " = " + p.defaultValue + ", valid " + rangeShort(p);
+      if (!p.unit.empty()) out += ", in " + p.unit;
+      if (!p.help.empty()) out += ": " + p.help;
+      out += "\n";
+    }
+  }
+  return out;
+}
+
+}  // namespace barrow::cli
