@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <memory>
+#include <optional>
 
 #include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
@@ -15,8 +16,8 @@ constexpr double kAutoFraction = 1.0 / 20.0;  // auto ε = (D/20)^p: a blur of 5
 // Potentials kept between calls of a sweep (same sizes, same ε and p), with the points they
 // were solved on so that they can be carried to the moved clouds (sinkhorn_carry.h).
 struct EntropicWarm : WarmState {
-  Eigen::VectorXd f, g;
-  Eigen::MatrixX2d x, y;
+  SolvedPotentials last;
+  std::optional<SolvedPotentials> before;  // the solve one step earlier on the path
   double epsilon = 0.0;
   int p = 0;
 };
@@ -121,13 +122,13 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
 
   SinkhornStart start;
   Eigen::VectorXd f0, g0;
+  const EntropicWarm* previous = nullptr;
   if (ctx.warm && *ctx.warm) {
     if (auto* w = dynamic_cast<EntropicWarm*>(ctx.warm->get()); w && w->p == o.p && w->epsilon == o.epsilon) {
-      f0 = w->f;
-      g0 = w->g;
-      carryPotentials(w->x, w->y, a.points, b.points, o.p, f0, g0);
+      startFromPath(w->before ? &*w->before : nullptr, w->last, a.points, b.points, o.p, f0, g0);
       start.f = &f0;
       start.g = &g0;
+      previous = w;
     }
   }
   kernel::RowWorkers team;
@@ -154,10 +155,9 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   }
   if (ctx.warm) {
     auto w = std::make_shared<EntropicWarm>();
-    w->f = sr.f;
-    w->g = sr.g;
-    w->x = a.points;
-    w->y = b.points;
+    if (previous && previous->last.x.rows() == a.size() && previous->last.y.rows() == b.size())
+      w->before = previous->last;
+    w->last = {a.points, b.points, sr.f, sr.g};
     w->epsilon = o.epsilon;
     w->p = o.p;
     *ctx.warm = w;

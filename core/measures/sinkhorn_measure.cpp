@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <memory>
+#include <optional>
 
 #include "cloud/congruence.h"
 #include "measures/entropic_measure.h"
@@ -20,6 +21,7 @@ const char* kGroup = "sinkhorn";
 // moves rigidly under the shift and rotate families).
 struct SinkhornWarm : WarmState {
   Eigen::VectorXd fab, gab;
+  std::optional<SolvedPotentials> abBefore;  // OT_ε(a, b)'s potentials one step earlier
   SinkhornResult aa, bb;
   Cloud aaCloud, bbCloud;
   double epsilon = 0.0;
@@ -71,9 +73,8 @@ ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, 
   SinkhornStart start;
   Eigen::VectorXd f0, g0;
   if (w) {
-    f0 = w->fab;
-    g0 = w->gab;
-    carryPotentials(w->aaCloud.points, w->bbCloud.points, a.points, b.points, o.p, f0, g0);
+    startFromPath(w->abBefore ? &*w->abBefore : nullptr, {w->aaCloud.points, w->bbCloud.points, w->fab, w->gab},
+                  a.points, b.points, o.p, f0, g0);
     start = {&f0, &g0};
   }
   t.ab = solveSinkhorn(a.points, wa, b.points, wb, o, c ? &cab : nullptr, &start, &team);
@@ -155,6 +156,10 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   r.details["bb_reused"] = t.bbReused;
   if (ctx.warm) {
     auto w = std::make_shared<SinkhornWarm>();
+    const auto* before = *ctx.warm ? dynamic_cast<const SinkhornWarm*>(ctx.warm->get()) : nullptr;
+    if (before && before->p == s.options.p && before->epsilon == s.options.epsilon &&
+        before->tolerance == s.options.tolerance && before->fab.size() == a.size() && before->gab.size() == b.size())
+      w->abBefore = SolvedPotentials{before->aaCloud.points, before->bbCloud.points, before->fab, before->gab};
     w->fab = std::move(t.ab.f);
     w->gab = std::move(t.ab.g);
     w->aa = std::move(t.aa);

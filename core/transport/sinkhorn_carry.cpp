@@ -1,5 +1,7 @@
 #include "transport/sinkhorn_carry.h"
 
+#include <algorithm>
+
 namespace barrow {
 
 void carryPotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, const Eigen::MatrixX2d& x,
@@ -12,6 +14,45 @@ void carryPotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, con
   if (d.isZero(0.0)) return;
   f.array() += 2.0 * (x0 * d).array() + d.squaredNorm();
   g.array() -= 2.0 * (y0 * d).array();
+}
+
+bool isTranslation(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& x) {
+  if (x0.rows() != x.rows() || x.rows() == 0) return false;
+  const Eigen::MatrixX2d d = x - x0;
+  const Eigen::RowVector2d s = d.colwise().mean();
+  const double size = std::max(x0.cwiseAbs().maxCoeff(), x.cwiseAbs().maxCoeff());
+  return ((d.rowwise() - s).cwiseAbs().maxCoeff()) <= 1e-12 * std::max(size, 1e-300);
+}
+
+bool extrapolatePotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, const Eigen::VectorXd& f0,
+                           const Eigen::VectorXd& g0, const Eigen::MatrixX2d& x1, const Eigen::MatrixX2d& y1,
+                           const Eigen::VectorXd& f1, const Eigen::VectorXd& g1, const Eigen::MatrixX2d& x,
+                           const Eigen::MatrixX2d& y, Eigen::VectorXd& f, Eigen::VectorXd& g) {
+  const Eigen::Index n = x.rows(), m = y.rows();
+  if (n == 0 || m == 0 || x0.rows() != n || x1.rows() != n || y0.rows() != m || y1.rows() != m || f0.size() != n ||
+      f1.size() != n || g0.size() != m || g1.size() != m)
+    return false;
+  const double before = (x1 - x0).squaredNorm() + (y1 - y0).squaredNorm();
+  if (!(before > 0)) return false;
+  const double along = ((x - x1).cwiseProduct(x1 - x0)).sum() + ((y - y1).cwiseProduct(y1 - y0)).sum();
+  const double alpha = along / before;
+  if (!(alpha > 0 && alpha <= 2)) return false;
+  Eigen::VectorXd fe = f1 + alpha * (f1 - f0), ge = g1 + alpha * (g1 - g0);
+  if (!fe.allFinite() || !ge.allFinite()) return false;
+  f = std::move(fe);
+  g = std::move(ge);
+  return true;
+}
+
+void startFromPath(const SolvedPotentials* before, const SolvedPotentials& last, const Eigen::MatrixX2d& x,
+                   const Eigen::MatrixX2d& y, int p, Eigen::VectorXd& f, Eigen::VectorXd& g) {
+  const bool translated = isTranslation(last.x, x) && isTranslation(last.y, y);
+  if (!(p == 2 && translated) && before &&
+      extrapolatePotentials(before->x, before->y, before->f, before->g, last.x, last.y, last.f, last.g, x, y, f, g))
+    return;
+  f = last.f;
+  g = last.g;
+  carryPotentials(last.x, last.y, x, y, p, f, g);
 }
 
 }  // namespace barrow

@@ -78,5 +78,42 @@ TEST(SinkhornCarryTest, DistanceCostIsLeftAlone) {
   EXPECT_EQ(g, c.before.g);
 }
 
+// Along a path of stretches (not a translation: no exact carry), extrapolating from the last
+// two solves starts closer than the last solve alone; the value is that of a cold solve.
+// (Common practice for continuation methods; the counts are checked, not assumed.)
+TEST(SinkhornCarryTest, ExtrapolationAlongAPathSavesIterations) {
+  Case c;
+  const auto stretched = [&](double s) {
+    Eigen::MatrixX2d x = c.x0;
+    x.col(0) *= s;
+    return x;
+  };
+  SinkhornResult r0 = solveSinkhorn(stretched(1.00), c.a, c.y0, c.b, c.o);
+  SinkhornStart from0{&r0.f, &r0.g};
+  SinkhornResult r1 = solveSinkhorn(stretched(1.01), c.a, c.y0, c.b, c.o, nullptr, &from0);  // as a sweep does
+  const SolvedPotentials p0{stretched(1.00), c.y0, r0.f, r0.g}, p1{stretched(1.01), c.y0, r1.f, r1.g};
+  const Eigen::MatrixX2d next = stretched(1.02);
+  Eigen::VectorXd fe, ge, fl, gl;
+  startFromPath(&p0, p1, next, c.y0, c.o.p, fe, ge);
+  startFromPath(nullptr, p1, next, c.y0, c.o.p, fl, gl);
+  SinkhornStart extrapolated{&fe, &ge}, last{&fl, &gl};
+  const SinkhornResult re = solveSinkhorn(next, c.a, c.y0, c.b, c.o, nullptr, &extrapolated);
+  const SinkhornResult rl = solveSinkhorn(next, c.a, c.y0, c.b, c.o, nullptr, &last);
+  const SinkhornResult cold = solveSinkhorn(next, c.a, c.y0, c.b, c.o);
+  ASSERT_EQ(re.status, SinkhornStatus::Converged);
+  EXPECT_LT(re.iterations, rl.iterations);
+  EXPECT_NEAR(re.value, cold.value, 1e-8 * std::abs(cold.value));
+}
+
+TEST(SinkhornCarryTest, NoExtrapolationWhenThePathTurnsBack) {
+  Case c;
+  const Eigen::MatrixX2d x1 = c.x0 * 1.05, back = c.x0 * 1.02;
+  Eigen::VectorXd f = c.before.f, g = c.before.g;
+  EXPECT_FALSE(extrapolatePotentials(c.x0, c.y0, c.before.f, c.before.g, x1, c.y0, c.before.f, c.before.g, back, c.y0, f, g));
+  EXPECT_EQ(f, c.before.f);  // untouched
+  EXPECT_TRUE(isTranslation(c.x0, c.x0.rowwise() + Eigen::RowVector2d(0.5, -2.0)));
+  EXPECT_FALSE(isTranslation(c.x0, x1));
+}
+
 }  // namespace
 }  // namespace barrow
