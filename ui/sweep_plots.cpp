@@ -1,5 +1,6 @@
 #include "sweep_plots.h"
 
+#include <QFontMetrics>
 #include <QLabel>
 #include <QVBoxLayout>
 #include <algorithm>
@@ -350,6 +351,7 @@ void SweepPlots::rebuild() {
     sy->setRange(robustRange(allSlopes));
   }
   sx->setRange(vx->range());
+  fitLegend();
   plot_->replot(QCustomPlot::rpQueuedReplot);
 }
 
@@ -389,6 +391,29 @@ void SweepPlots::onPress(QMouseEvent* e) {
 void SweepPlots::onMove(QMouseEvent* e) {
   if (!dragging_ || !(e->buttons() & Qt::LeftButton)) return;
   placeCursor(values_->axis(QCPAxis::atBottom)->pixelToCoord(e->position().x()), true);
+}
+
+// Fifteen legend rows do not fit beside a short value pane: they would be drawn over each
+// other. Wrap the legend into as many columns as the pane's height needs.
+void SweepPlots::fitLegend() {
+  QCPLegend* legend = plot_->legend;
+  const int items = legend->itemCount();
+  if (items == 0) return;
+  const int rowHeight = std::max(1, QFontMetrics(legend->font()).height() + legend->rowSpacing());
+  // The value pane gets 3/5 of the height (row stretch 3:2), less the axis margins.
+  const int available = plot_->height() * 3 / 5 - 24;
+  const int rows = std::max(1, available / rowHeight);
+  const int wrap = items <= rows ? 0 : rows;
+  if (legend->wrap() == wrap) return;
+  legend->setWrap(wrap);
+  legend->setFillOrder(QCPLayoutGrid::foRowsFirst, true);
+}
+
+void SweepPlots::resizeEvent(QResizeEvent* e) {
+  QWidget::resizeEvent(e);
+  const int before = plot_->legend->wrap();
+  fitLegend();
+  if (plot_->legend->wrap() != before) plot_->replot(QCustomPlot::rpQueuedReplot);
 }
 
 }  // namespace barrow::ui

@@ -19,6 +19,7 @@ class QCPItemStraightLine;
 class QCPItemText;
 class QLabel;
 class QMouseEvent;
+class QResizeEvent;
 
 namespace barrow::ui {
 
@@ -59,8 +60,12 @@ class SweepPlots : public QWidget {
   /// The user dragged or clicked the cursor to θ (nullopt: released with a double-click).
   void thetaChanged(std::optional<double> theta);
 
+ protected:
+  void resizeEvent(QResizeEvent* e) override;
+
  private:
   void rebuild();
+  void fitLegend();
   void onPress(QMouseEvent* e);
   void onMove(QMouseEvent* e);
   void placeCursor(double theta, bool notify);
