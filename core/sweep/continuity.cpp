@@ -140,6 +140,7 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, b
     return f;
   }
   facts.lowest = c.low;
+  facts.range = c.range;
   facts.best = {NAN, NAN};
   f.monotone = growsAwayFromBest(c, o.monotoneSlack * c.range + 1e-12 * std::max(1.0, std::abs(c.low)),
                                  &facts.best);

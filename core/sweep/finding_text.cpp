@@ -40,10 +40,22 @@ std::string flatWhat(const FlatFacts& s, const FindingFacts& facts) {
   return "is piecewise constant (" + shortNumber(s.low) + " to " + shortNumber(s.high) + ")";
 }
 
+// A value shown against the measure's own spread over the sweep: three significant digits,
+// plus as many as it takes for differences of that spread to show (a minimum of 1.2003 in a
+// sweep that only reaches 1.2033 is not "1.2").
+std::string numberAgainst(double v, double spread) {
+  if (!std::isfinite(v) || v == 0 || !(spread > 0) || !std::isfinite(spread)) return shortNumber(v);
+  const int extra = std::clamp(int(std::ceil(std::log10(std::abs(v) / spread))), 0, 6);
+  char buf[40];
+  std::snprintf(buf, sizeof buf, "%.*g", 3 + extra, v);
+  return buf;
+}
+
 std::string bestText(const FindingFacts& facts) {
   const auto [lo, hi] = facts.best;
   if (lo == hi) return "its best θ = " + shortNumber(lo);
-  return "its minimum " + shortNumber(facts.lowest) + " (θ in [" + shortNumber(lo) + ", " + shortNumber(hi) + "])";
+  return "its minimum " + numberAgainst(facts.lowest, facts.range) + " (θ in [" + shortNumber(lo) + ", " +
+         shortNumber(hi) + "])";
 }
 
 }  // namespace

@@ -24,6 +24,7 @@ struct FindingFacts {
   bool refined = false;       // jumps were confirmed by bisection
   bool constant = false;      // one finite value at every θ
   double lowest = 0.0;        // smallest finite value
+  double range = 0.0;         // largest finite value minus the smallest
   std::pair<double, double> best{0.0, 0.0};  // θ extent where it is reached (NaN: +∞ throughout)
   double thetaLow = 0.0, thetaHigh = 0.0;
   double constantTolerance = 0.0;  // a stretch whose values differ by less is "constant"

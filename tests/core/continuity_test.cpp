@@ -104,6 +104,17 @@ TEST(ContinuityTest, SaturationIsFlatButTheMinimumIsNot) {
   EXPECT_LE(f.lipschitz, 8.578);
 }
 
+// A measure that barely varies over the sweep (W1 under a small rotation, say): its minimum is
+// written with enough digits to differ from the rest of its values (common practice) [D].
+TEST(ContinuityTest, MinimumOfANarrowSeriesKeepsTheDigitsThatMatter) {
+  const auto r = sweepOf("w1", grid(-1, 1, 41), [](double t) { return 1.20012 + 0.0033 * std::max(0.0, std::abs(t) - 0.1); });
+  const Finding f = findContinuity(r)[0];
+  EXPECT_NE(f.summary.find("its minimum 1.20012 (θ in [-0.1, 0.1])"), std::string::npos) << f.summary;
+  // A series spread wide keeps three digits.
+  const auto wide = sweepOf("w2", grid(-1, 1, 41), [](double t) { return 0.123456 + std::max(0.0, std::abs(t) - 0.1); });
+  EXPECT_NE(findContinuity(wide)[0].summary.find("its minimum 0.123 ("), std::string::npos) << findContinuity(wide)[0].summary;
+}
+
 TEST(ContinuityTest, ADipAwayFromTheBestThetaIsNotMonotone) {
   const auto r = sweepOf("chamfer", grid(-1, 1, 41), [](double t) {
     return std::abs(t) - (std::abs(t - 0.6) < 0.06 ? 0.2 : 0.0);
