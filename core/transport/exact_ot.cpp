@@ -27,6 +27,8 @@ std::string checkOptions(const ExactOtOptions& o) {
   return {};
 }
 
+constexpr int kMinSourcesForTeam = 512;
+
 // One problem solved to optimality by column generation, from a given start.
 struct LevelOutcome {
   ExactOtStatus status = ExactOtStatus::Optimal;
@@ -36,6 +38,7 @@ struct LevelOutcome {
   Eigen::ArrayXd u, v;                           // tree potentials at the end
   std::vector<std::pair<int, int>> added;        // arcs found by pricing
   std::shared_ptr<SiteTree> sinks;               // tree over the sinks, for pricing
+  std::shared_ptr<kernel::RowWorkers> team;      // pricing threads; null for small problems
   long long pivots = 0, degenerate = 0;
   int rounds = 0;
 };
@@ -61,6 +64,8 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
 
   std::vector<std::pair<int, int>> violated;
   out.sinks = std::make_shared<SiteTree>(pr.bx, pr.by, pr.cost);
+  // Pricing is worth more than one core once there are a few chunks of sources per thread.
+  if (pr.n() >= kMinSourcesForTeam) out.team = std::make_shared<kernel::RowWorkers>();
   out.u.resize(pr.n());
   out.v.resize(pr.m());
   while (true) {
@@ -76,7 +81,8 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
       break;
     }
     violated.clear();
-    if (!priceAllPairs(pr, *out.sinks, out.u, out.v, tol, o.arcsPerRow, &violated, control, ns.progress())) {
+    if (!priceAllPairs(pr, *out.sinks, out.u, out.v, tol, o.arcsPerRow, &violated, control, ns.progress(),
+                       out.team.get())) {
       out.status = ExactOtStatus::Cancelled;
       break;
     }
@@ -144,7 +150,7 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
 void fillPotentials(const Cloud& a, const Cloud& b, const ExactProblem& pr, const LevelOutcome& out, double zeroTol,
                     ExactOtResult* r, std::vector<int>* ties) {
   Eigen::ArrayXd u;
-  cTransformSources(pr, *out.sinks, out.v, zeroTol, &u, ties);
+  cTransformSources(pr, *out.sinks, out.v, zeroTol, &u, ties, out.team.get());
   r->u.resize(a.size());
   r->v.resize(b.size());
   for (int i = 0; i < pr.n(); ++i) r->u(pr.rowA[std::size_t(i)]) = u(i);

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <atomic>
+#include <functional>
 #include <thread>
 
 namespace barrow {
@@ -20,40 +21,37 @@ double cTransformAt(double x, double y, const Eigen::Ref<const Eigen::ArrayXd>& 
 
 namespace {
 
-// Sources below this many are priced on the calling thread alone (a thread start costs more).
-constexpr int kMinSourcesPerThread = 256;
+constexpr int kGrain = 128;  // sources per chunk handed to a thread
 
-// Runs body(begin, end, onCaller) over [0, n) in contiguous chunks on up to all cores, the
-// first chunk on the calling thread (the only one that may touch a RunControl: its
-// callbacks need not be thread-safe).
-template <class Body>
-void overChunks(int n, Body&& body) {
-  const int cores = int(std::max(1u, std::thread::hardware_concurrency()));
-  const int chunks = std::max(1, std::min(cores, n / kMinSourcesPerThread));
-  std::vector<std::thread> pool;
-  const auto edge = [&](int c) { return int((long long)n * c / chunks); };
-  for (int c = 1; c < chunks; ++c) pool.emplace_back([&, c] { body(c, edge(c), edge(c + 1), false); });
-  body(0, 0, edge(1), true);
-  for (auto& t : pool) t.join();
+// Runs body(begin, end) over [0, n) in chunks of kGrain (begins at multiples of it), on the
+// team when there is one, else in order on this thread.
+void overSources(int n, kernel::RowWorkers* team, const std::function<void(int, int)>& body) {
+  if (team) {
+    team->run(n, kGrain, body);
+    return;
+  }
+  for (int b = 0; b < n; b += kGrain) body(b, std::min(n, b + kGrain));
 }
 
 }  // namespace
 
 bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v,
                    double tol, int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
-                   double progress) {
+                   double progress, kernel::RowWorkers* team) {
   sinks.setPotentials(v);
   const SiteTree& tree = sinks;
+  // Only the calling thread may touch `control` (its callbacks need not be thread-safe).
+  const std::thread::id caller = std::this_thread::get_id();
   std::atomic<bool> stop{false};
-  std::vector<std::vector<std::pair<int, int>>> found(std::max(1u, std::thread::hardware_concurrency()));
-  overChunks(pr.n(), [&](int chunk, int begin, int end, bool onCaller) {
+  std::vector<std::vector<std::pair<int, int>>> found(std::size_t((pr.n() + kGrain - 1) / kGrain));
+  overSources(pr.n(), team, [&](int begin, int end) {
+    if (stop || (control && std::this_thread::get_id() == caller && control->shouldStop(progress))) {
+      stop = true;
+      return;
+    }
     std::vector<std::pair<double, int>> hits;
-    auto& mine = found[std::size_t(chunk)];
+    auto& mine = found[std::size_t(begin / kGrain)];
     for (int i = begin; i < end; ++i) {
-      if ((i & 255) == 255) {
-        if (onCaller && control && control->shouldStop(progress)) stop = true;
-        if (stop) return;
-      }
       tree.below(pr.ax(i), pr.ay(i), u(i) - tol, perRow, &hits);
       for (const auto& [score, j] : hits) mine.emplace_back(i, j);
     }
@@ -64,12 +62,12 @@ bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd
 }
 
 void cTransformSources(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& v, double zeroTol,
-                       Eigen::ArrayXd* u, std::vector<int>* ties) {
+                       Eigen::ArrayXd* u, std::vector<int>* ties, kernel::RowWorkers* team) {
   sinks.setPotentials(v);
   const SiteTree& tree = sinks;
   u->resize(pr.n());
   ties->assign(std::size_t(pr.n()), 0);
-  overChunks(pr.n(), [&](int, int begin, int end, bool) {
+  overSources(pr.n(), team, [&](int begin, int end) {
     for (int i = begin; i < end; ++i) (*u)(i) = tree.minScore(pr.ax(i), pr.ay(i), zeroTol, &(*ties)[std::size_t(i)]);
   });
 }

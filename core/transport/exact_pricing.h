@@ -2,9 +2,9 @@
 // (nothing of size n × m is stored), and the c-transform of a potential (Villani 2009,
 // "Optimal Transport: Old and New", Def. 5.7): v^c(x) = min_j (c(x, y_j) − v_j).
 // Both run per source over a SiteTree of the sinks, which skips whole boxes of sinks that
-// cannot score low enough; the answers are those of a scan over every pair. Sources are
-// split over all cores in contiguous chunks; results come back in source order, so a solve
-// makes the same pivots on any number of cores.
+// cannot score low enough; the answers are those of a scan over every pair. With a thread
+// team the sources are split into chunks across its threads; results come back in source
+// order, so a solve makes the same pivots with or without one.
 #pragma once
 
 #include <Eigen/Core>
@@ -14,6 +14,7 @@
 #include "measures/run_control.h"
 #include "transport/exact_problem.h"
 #include "transport/exact_site_tree.h"
+#include "transport/kernel_pass_threads.h"
 
 namespace barrow {
 
@@ -23,12 +24,12 @@ namespace barrow {
 /// 256 rows, reporting `progress`); `violated` then holds what was found.
 bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v,
                    double tol, int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
-                   double progress);
+                   double progress, kernel::RowWorkers* team = nullptr);
 
 /// u_i = v^c(x_i) for every active source, and per source the number of sinks whose
 /// c_ij − v_j lies within zeroTol of that minimum (the basis arcs plus any ties).
 void cTransformSources(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& v, double zeroTol,
-                       Eigen::ArrayXd* u, std::vector<int>* ties);
+                       Eigen::ArrayXd* u, std::vector<int>* ties, kernel::RowWorkers* team = nullptr);
 
 /// v^c at one point (x, y) over the sites (sx, sy) with potentials v, by a full scan.
 /// Pre: at least one site.
