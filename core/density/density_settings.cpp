@@ -1,6 +1,5 @@
 #include "density/density_settings.h"
 
-#include <charconv>
 #include <stdexcept>
 #include <string>
 
@@ -10,14 +9,6 @@
 namespace barrow {
 
 namespace {
-
-std::string exact(double v) {
-  char buf[32];
-  const auto res = std::to_chars(buf, buf + sizeof buf, v);
-  return std::string(buf, res.ptr);
-}
-
-std::string exactPair(const Eigen::Vector2d& v) { return exact(v.x()) + "," + exact(v.y()); }
 
 Eigen::Vector2d pairOf(const ParamSet& p, const char* key) {
   const auto [x, y] = p.pair(key);
@@ -51,11 +42,15 @@ ParamSet freezeDensitySettings(const Cloud& a, const Cloud& b, const ParamSet& r
   if (!autoBin && !autoOriginWord && !ruleBand) return out;
   const PooledStats stats = pooledStats(a, b);
   const double bin = autoBin ? autoBinWidth(stats) : resolved.real(kBin);
-  if (autoBin) out.set(kBin, exact(bin));
-  if (autoOriginWord) out.set(kOrigin, exactPair(autoOrigin(stats, bin)));
+  if (autoBin) out.setNumber(kBin, bin);
+  if (autoOriginWord) {
+    const Eigen::Vector2d o = autoOrigin(stats, bin);
+    out.setPair(kOrigin, o.x(), o.y());
+  }
   if (ruleBand) {
     const auto rule = resolved.isWord(kBandwidth, "scott") ? BandwidthRule::Scott : BandwidthRule::Silverman;
-    out.set(kBandwidth, exactPair(ruleBandwidth(stats, rule).s));
+    const Eigen::Vector2d s = ruleBandwidth(stats, rule).s;
+    out.setPair(kBandwidth, s.x(), s.y());
   }
   return out;
 }

@@ -86,11 +86,7 @@ EntropicSettings readEntropicSettings(const std::string& group, const ParamSet& 
 ParamSet freezeEntropic(const std::string& group, const Cloud& a, const Cloud& b, const ParamSet& resolved) {
   ParamSet out = resolved;
   const EntropicSettings s = readEntropicSettings(group, resolved, a, b);
-  if (s.automatic) {
-    char text[64];
-    std::snprintf(text, sizeof text, "%.17g", s.options.epsilon);
-    out.set(group + ".epsilon", text);
-  }
+  if (s.automatic) out.setNumber(group + ".epsilon", s.options.epsilon);
   return out;
 }
 

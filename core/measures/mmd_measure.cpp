@@ -1,7 +1,6 @@
 #include "measures/mmd_measure.h"
 
 #include <cmath>
-#include <sstream>
 
 #include "kernel/discrepancy.h"
 #include "kernel/median_distance.h"
@@ -95,10 +94,7 @@ ParamSet MmdMeasure::freeze(const Cloud& a, const Cloud& b, const ParamSet& reso
   const Bandwidth bw = chooseBandwidth(supportOf(a), supportOf(b), resolved, WorkSlice{});
   if (!bw.error.empty()) return resolved;  // evaluate() will report why
   ParamSet frozen = resolved;
-  std::ostringstream text;
-  text.precision(17);
-  text << bw.sigma;
-  frozen.set(kSigma, text.str());
+  frozen.setNumber(kSigma, bw.sigma);
   return frozen;
 }
 

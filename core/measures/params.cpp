@@ -8,6 +8,20 @@
 
 namespace barrow {
 
+namespace {
+
+std::string roundTrip(double v) {
+  char buf[32];
+  const auto res = std::to_chars(buf, buf + sizeof buf, v);
+  return std::string(buf, res.ptr);
+}
+
+}  // namespace
+
+void ParamSet::setNumber(const std::string& key, double value) { values_[key] = roundTrip(value); }
+
+void ParamSet::setPair(const std::string& key, double x, double y) { values_[key] = roundTrip(x) + "," + roundTrip(y); }
+
 std::optional<double> parseNumber(const std::string& text) {
   std::string t = text;
   t.erase(0, t.find_first_not_of(" \t"));

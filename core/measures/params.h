@@ -38,6 +38,10 @@ std::optional<std::string> checkParam(const ParamSpec& spec, const std::string& 
 class ParamSet {
  public:
   void set(const std::string& key, const std::string& value) { values_[key] = value; }
+  /// Numbers in the shortest text that reads back to exactly the same double, so a frozen
+  /// setting replays bit for bit ("s" or "x,y").
+  void setNumber(const std::string& key, double value);
+  void setPair(const std::string& key, double x, double y);
   bool has(const std::string& key) const { return values_.count(key) != 0; }
   void erase(const std::string& key) { values_.erase(key); }
   const std::map<std::string, std::string>& values() const { return values_; }

@@ -97,7 +97,7 @@ TEST(NetworkSimplexClosedFormTest, W2SplitsIntoMeansAndCentredParts) {
   muBar.points.rowwise() -= mu.mean().transpose();
   nuBar.points.rowwise() -= nu.mean().transpose();
   const double centred = std::pow(solve(muBar, nuBar, 2), 2);
-  for (const Eigen::Vector2d t : {Eigen::Vector2d(0, 0), Eigen::Vector2d(0.3, 0.1), Eigen::Vector2d(-2, 5),
+  for (const Eigen::Vector2d& t : {Eigen::Vector2d(0, 0), Eigen::Vector2d(0.3, 0.1), Eigen::Vector2d(-2, 5),
                                   Eigen::Vector2d(1e-3, -1e-3)}) {
     Cloud shifted = mu;
     shifted.points.rowwise() += t.transpose();

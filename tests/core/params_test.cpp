@@ -94,5 +94,19 @@ TEST(ParamsTest, ResolvedFillsDefaultsAndReportsFirstError) {
   EXPECT_FALSE(err.empty());
 }
 
+// Frozen numbers are written so that reading them back gives the same double (the sweep
+// replays them; common practice for round-trip text, std::to_chars shortest form).
+TEST(ParamsTest, NumbersAndPairsReadBackBitForBit) {
+  ParamSet p;
+  for (double v : {0.1, 1.0 / 3.0, 0.015624009898307622, 1e-300, 6.02214076e23}) {
+    p.setNumber("g.x", v);
+    EXPECT_EQ(p.real("g.x"), v) << p.text("g.x");
+  }
+  p.setPair("g.xy", 1.0 / 3.0, -2.0 / 7.0);
+  EXPECT_EQ(p.pair("g.xy"), std::make_pair(1.0 / 3.0, -2.0 / 7.0)) << p.text("g.xy");
+  p.setNumber("g.x", 0.25);
+  EXPECT_EQ(p.text("g.x"), "0.25");  // shortest form, not 17 digits
+}
+
 }  // namespace
 }  // namespace barrow
