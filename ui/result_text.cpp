@@ -5,6 +5,8 @@
 #include <optional>
 #include <sstream>
 
+#include "measures/details_text.h"
+
 namespace barrow::ui {
 
 namespace {
@@ -84,15 +86,11 @@ QString detailsHtml(const Measure& m, const Result* r) {
   if (!r->message.empty() && r->status != Status::InvalidInput)
     h += "<br>" + QString::fromStdString(r->message).toHtmlEscaped();
   if (r->iterations > 0) h += "<br>" + QObject::tr("%n iteration(s)", "", r->iterations);
-  if (r->details.is_object() && !r->details.empty()) {
-    h += "<br>" + QObject::tr("Settings and diagnostics:") + " <tt>";
-    bool first = true;
-    for (const auto& [k, v] : r->details.items()) {
-      h += (first ? "" : ", ") + QString::fromStdString(k).toHtmlEscaped() + " = " +
-           QString::fromStdString(v.is_string() ? v.get<std::string>() : v.dump()).toHtmlEscaped();
-      first = false;
-    }
-    h += "</tt>";
+  const std::vector<std::string> items = detailItems(r->details);
+  if (!items.empty()) {
+    QStringList shown;
+    for (const auto& item : items) shown << QString::fromStdString(item).toHtmlEscaped();
+    h += "<br>" + QObject::tr("Settings and diagnostics:") + " <tt>" + shown.join("; ") + "</tt>";
   }
   return h;
 }

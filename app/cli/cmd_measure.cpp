@@ -6,7 +6,7 @@
 
 #include "cli/cli_common.h"
 #include "cli/commands.h"
-#include "cli/details_text.h"
+#include "measures/details_text.h"
 #include "measures/evaluate.h"
 
 namespace barrow::cli {

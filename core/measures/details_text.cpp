@@ -1,8 +1,8 @@
-#include "cli/details_text.h"
+#include "measures/details_text.h"
 
 #include <cstdio>
 
-namespace barrow::cli {
+namespace barrow {
 
 namespace {
 
@@ -33,11 +33,16 @@ void flatten(const nlohmann::json& d, const std::string& prefix, std::vector<std
 
 }  // namespace
 
-std::vector<std::string> detailLines(const nlohmann::json& details, std::size_t width) {
-  std::vector<std::string> items, lines;
+std::vector<std::string> detailItems(const nlohmann::json& details) {
+  std::vector<std::string> items;
   if (details.is_object()) flatten(details, "", &items);
+  return items;
+}
+
+std::vector<std::string> detailLines(const nlohmann::json& details, std::size_t width) {
+  std::vector<std::string> lines;
   std::string line;
-  for (const auto& item : items) {
+  for (const auto& item : detailItems(details)) {
     if (!line.empty() && line.size() + 2 + item.size() > width) {
       lines.push_back(line);
       line.clear();
@@ -48,4 +53,4 @@ std::vector<std::string> detailLines(const nlohmann::json& details, std::size_t 
   return lines;
 }
 
-}  // namespace barrow::cli
+}  // namespace barrow
