@@ -15,4 +15,9 @@ namespace barrow {
 /// not detected (reported as not congruent, which is only a missed reuse).
 bool rigidlyCongruent(const Cloud& ref, const Cloud& moved, double relTol = 1e-11);
 
+/// The same test on point sets alone (weights not looked at); with !rotationAllowed, whether
+/// `moved` is `ref` translated (R = identity).
+bool rigidlyMoved(const Eigen::MatrixX2d& ref, const Eigen::MatrixX2d& moved, bool rotationAllowed,
+                  double relTol = 1e-11);
+
 }  // namespace barrow

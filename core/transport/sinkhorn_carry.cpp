@@ -2,6 +2,8 @@
 
 #include <algorithm>
 
+#include "cloud/congruence.h"
+
 namespace barrow {
 
 void carryPotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, const Eigen::MatrixX2d& x,
@@ -14,14 +16,6 @@ void carryPotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, con
   if (d.isZero(0.0)) return;
   f.array() += 2.0 * (x0 * d).array() + d.squaredNorm();
   g.array() -= 2.0 * (y0 * d).array();
-}
-
-bool isTranslation(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& x) {
-  if (x0.rows() != x.rows() || x.rows() == 0) return false;
-  const Eigen::MatrixX2d d = x - x0;
-  const Eigen::RowVector2d s = d.colwise().mean();
-  const double size = std::max(x0.cwiseAbs().maxCoeff(), x.cwiseAbs().maxCoeff());
-  return ((d.rowwise() - s).cwiseAbs().maxCoeff()) <= 1e-12 * std::max(size, 1e-300);
 }
 
 bool extrapolatePotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, const Eigen::VectorXd& f0,
@@ -46,7 +40,7 @@ bool extrapolatePotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y
 
 void startFromPath(const SolvedPotentials* before, const SolvedPotentials& last, const Eigen::MatrixX2d& x,
                    const Eigen::MatrixX2d& y, int p, Eigen::VectorXd& f, Eigen::VectorXd& g) {
-  const bool translated = isTranslation(last.x, x) && isTranslation(last.y, y);
+  const bool translated = rigidlyMoved(last.x, x, false) && rigidlyMoved(last.y, y, false);
   if (!(p == 2 && translated) && before &&
       extrapolatePotentials(before->x, before->y, before->f, before->g, last.x, last.y, last.f, last.g, x, y, f, g))
     return;

@@ -18,10 +18,6 @@ namespace barrow {
 void carryPotentials(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& y0, const Eigen::MatrixX2d& x,
                      const Eigen::MatrixX2d& y, int p, Eigen::VectorXd& f, Eigen::VectorXd& g);
 
-/// True when x is x0 moved by one common translation, to rounding (relative 1e-12 of the
-/// coordinates' size).
-bool isTranslation(const Eigen::MatrixX2d& x0, const Eigen::MatrixX2d& x);
-
 /// A start for the next step of a path of moves (a sweep): with (f0, g0) solved on (x0, y0)
 /// and (f1, g1) on (x1, y1) one step later, extrapolates the potentials linearly to (x, y):
 /// f = f1 + α (f1 − f0), g likewise, α the step from (x1, y1) to (x, y) measured along the

@@ -36,6 +36,16 @@ TEST(CongruenceTest, FarFromTheOriginTheRoundingOfTheMoveIsAllowed) {
   EXPECT_TRUE(rigidlyCongruent(a, rotated(a, 0.3, a.points.colwise().mean(), {0, 0})));
 }
 
+TEST(CongruenceTest, TranslationOnlyWhenRotationIsNotAllowed) {
+  const Cloud a = randomCloud(150, 4, 1e3);
+  EXPECT_TRUE(rigidlyMoved(a.points, rotated(a, 0.0, {0, 0}, {0.5, -2.0}).points, false));
+  EXPECT_FALSE(rigidlyMoved(a.points, rotated(a, 0.01, a.points.colwise().mean(), {0, 0}).points, false));
+  EXPECT_TRUE(rigidlyMoved(a.points, rotated(a, 0.01, a.points.colwise().mean(), {0, 0}).points, true));
+  Cloud stretched = a;
+  stretched.points *= 1.05;
+  EXPECT_FALSE(rigidlyMoved(a.points, stretched.points, false));
+}
+
 TEST(CongruenceTest, OtherChangesAreNot) {
   const Cloud a = randomCloud(100, 3);
   Cloud scaled = a;
