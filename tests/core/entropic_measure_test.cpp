@@ -10,6 +10,7 @@
 #include "measures/entropic_measure.h"
 #include "measures/evaluate.h"
 #include "measures/registry.h"
+#include "support/test_support.h"
 
 namespace barrow {
 namespace {
@@ -27,14 +28,7 @@ Cloud cloud(int n, unsigned seed, double shiftX) {
 }
 
 EvalRequest request(double eps, int p, double tolerance = 1e-12) {
-  EvalRequest req;
-  char text[64];
-  std::snprintf(text, sizeof text, "%.17g", eps);
-  req.params.set("entropic.epsilon", text);
-  req.params.set("entropic.p", std::to_string(p));
-  std::snprintf(text, sizeof text, "%.17g", tolerance);
-  req.params.set("entropic.tolerance", text);
-  return req;
+  return test::entropicRequest("entropic", eps, p, tolerance);
 }
 
 TEST(EntropicMeasureTest, RegisteredWithTheContractKeys) {

@@ -9,6 +9,7 @@
 
 #include "measures/evaluate.h"
 #include "measures/registry.h"
+#include "support/test_support.h"
 #include "measures/sinkhorn_measure.h"
 
 namespace barrow {
@@ -28,14 +29,7 @@ Cloud cloud(int n, unsigned seed, double shiftX, double spread = 1.0) {
 }
 
 EvalRequest request(double eps, int p, double tolerance = 1e-11) {
-  EvalRequest req;
-  char text[64];
-  std::snprintf(text, sizeof text, "%.17g", eps);
-  req.params.set("sinkhorn.epsilon", text);
-  req.params.set("sinkhorn.p", std::to_string(p));
-  std::snprintf(text, sizeof text, "%.17g", tolerance);
-  req.params.set("sinkhorn.tolerance", text);
-  return req;
+  return test::entropicRequest("sinkhorn", eps, p, tolerance);
 }
 
 double divergence(const Cloud& a, const Cloud& b, double eps, int p) {

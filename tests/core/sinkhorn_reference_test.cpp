@@ -28,19 +28,9 @@ Cloud weightedCloud(int n, unsigned seed, double shiftX) {
   return Cloud("c", p, wt);
 }
 
-std::string text(double v) {
-  std::ostringstream s;
-  s.precision(17);
-  s << v;
-  return s.str();
-}
-
 Result run(const Measure& m, const Cloud& a, const Cloud& b, const std::string& group, double eps, int p,
            double tolerance = 1e-12) {
-  EvalRequest req;
-  req.params.set(group + ".epsilon", text(eps));
-  req.params.set(group + ".p", std::to_string(p));
-  req.params.set(group + ".tolerance", text(tolerance));
+  EvalRequest req = test::entropicRequest(group, eps, p, tolerance);
   req.params.set(group + ".max_iterations", "1000000");
   return evaluateMeasure(m, a, b, req);
 }

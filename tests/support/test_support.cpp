@@ -122,4 +122,12 @@ Cloud gaussianCloud(int n, unsigned seed, double offset, double spread, bool ran
   return Cloud("c", p, wt);
 }
 
+EvalRequest entropicRequest(const std::string& group, double epsilon, int p, double tolerance) {
+  EvalRequest req;
+  req.params.setNumber(group + ".epsilon", epsilon);
+  req.params.set(group + ".p", std::to_string(p));
+  req.params.setNumber(group + ".tolerance", tolerance);
+  return req;
+}
+
 }  // namespace barrow::test

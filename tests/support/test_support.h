@@ -6,6 +6,7 @@
 #include <string>
 
 #include "cloud/cloud.h"
+#include "measures/evaluate.h"
 #include "measures/measure.h"
 
 namespace barrow::test {
@@ -26,6 +27,10 @@ bool pythonHas(const std::string& modules);
 
 /// Runs a shell command; returns the exit code, stdout and stderr go to the strings.
 int runCommand(const std::string& cmd, std::string* out, std::string* err);
+
+/// Settings for the entropic measures (`group` = "entropic" or "sinkhorn"): ε, p and the
+/// marginal tolerance, written so that they read back exactly.
+EvalRequest entropicRequest(const std::string& group, double epsilon, int p, double tolerance);
 
 /// n points with both coordinates offset + N(0, spread²) and weights uniform in [0.1, 1)
 /// (or all 1 when !randomWeights), from std::mt19937(seed): reproducible test data.
