@@ -58,7 +58,12 @@ class Measure {
 
   /// dD/dx_i for each point of A (n x 2), when the theory gives it in closed form
   /// (e.g. through the optimal plan, by the envelope theorem). `r` is evaluate()'s result on
-  /// the same input, computed with wantPlan = true. nullopt: no analytic gradient here.
+  /// the same input, computed with wantPlan = gradientNeedsPlan(). nullopt: no analytic
+  /// gradient here.
+  /// True when gradientA() reads Result::plan (a sweep then asks evaluate() for the plan at
+  /// every θ; building a dense entropic plan there would be wasted work).
+  virtual bool gradientNeedsPlan() const { return false; }
+
   virtual std::optional<Eigen::MatrixX2d> gradientA(const Cloud& a, const Cloud& b,
                                                     const EvalContext& ctx, const Result& r) const {
     (void)a; (void)b; (void)ctx; (void)r;

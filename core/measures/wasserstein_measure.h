@@ -28,6 +28,7 @@ class WassersteinMeasure : public Measure {
   /// W1: ∂/∂x_i = Σ_j π_ij (x_i − y_j)/‖x_i − y_j‖ (0 where x_i = y_j);
   /// W2: ∂/∂x_i = (1/W2) Σ_j π_ij (x_i − y_j). One-sided when the plan is not unique
   /// (details "plan_unique": false). nullopt without a plan, or for w2 at W2 = 0 (a kink).
+  bool gradientNeedsPlan() const override { return true; }  // the envelope theorem sums over the plan
   std::optional<Eigen::MatrixX2d> gradientA(const Cloud& a, const Cloud& b, const EvalContext& ctx,
                                             const Result& r) const override;
 

@@ -19,7 +19,7 @@ std::optional<Eigen::MatrixX2d> tryGradient(const Measure& m, const Cloud& at, c
   ctx.params = resolveParams(m, frozen, &error);
   ctx.control = control;
   ctx.warm = warm;
-  ctx.wantPlan = true;
+  ctx.wantPlan = m.gradientNeedsPlan();
   if (!error.empty()) return std::nullopt;
   try {
     auto g = m.gradientA(at, b, ctx, r);
@@ -57,7 +57,7 @@ SweepJob::SweepJob(const Measure& m, const ParamSet& user, const Cloud& a0, cons
   EvalRequest req;
   req.params = frozen_;
   req.control = control;
-  req.wantPlan = wantAnalytic;
+  req.wantPlan = wantAnalytic && m.gradientNeedsPlan();
   std::shared_ptr<WarmState> state;
   req.warm = &state;
   const Result r = evaluateMeasure(m, a0, b, req);
@@ -82,7 +82,7 @@ SweepCell SweepJob::evaluate(const Cloud& at, const Cloud& b, const Eigen::Matri
   // Without warm starts between θ, the state still passes from this value to its gradient.
   std::shared_ptr<WarmState> local;
   req.warm = warm ? warm : (analytic_ ? &local : nullptr);
-  req.wantPlan = analytic_;
+  req.wantPlan = analytic_ && m_->gradientNeedsPlan();
   const Result r = evaluateMeasure(*m_, at, b, req);
   c.status = r.status;
   c.seconds = r.seconds;

@@ -45,7 +45,8 @@ std::string pyWeights(const Cloud& c);
 /// moving one coordinate of one point of A at a time by +-h (n x 2).
 Eigen::MatrixX2d finiteDifferenceGradientA(const Measure& m, const Cloud& a, const Cloud& b, const ParamSet& params,
                                            double h);
-/// m.gradientA on (a, b) with `params` resolved, after evaluating with wantPlan = true.
+/// m.gradientA on (a, b) with `params` resolved, after evaluating with the plan only when
+/// m.gradientNeedsPlan() (as a sweep does).
 std::optional<Eigen::MatrixX2d> analyticGradientA(const Measure& m, const Cloud& a, const Cloud& b,
                                                   const ParamSet& params);
 
