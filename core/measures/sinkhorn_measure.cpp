@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <memory>
 #include <optional>
+#include <tuple>
 
 #include "cloud/congruence.h"
 #include "measures/entropic_measure.h"
@@ -15,19 +16,24 @@ namespace {
 
 const char* kGroup = "sinkhorn";
 
-// Potentials of the three problems, kept between calls of a sweep, with the clouds the self
-// terms were solved on: a self term depends only on distances within its cloud, so it is
-// reused as it is when the cloud has only been moved rigidly (B never moves in a sweep; A
-// moves rigidly under the shift and rotate families).
+// The three problems' solutions, kept between calls of a sweep. A self term depends only on
+// distances within its cloud, so it is reused as it is when the cloud has only been moved
+// rigidly (B never moves in a sweep; A moves rigidly under the shift and rotate families).
 struct SinkhornWarm : WarmState {
-  Eigen::VectorXd fab, gab;
-  std::optional<SolvedPotentials> abBefore;  // OT_ε(a, b)'s potentials one step earlier
+  SolvedPotentials ab;                       // OT_ε(a, b) on the last clouds (x: A, y: B)
+  std::optional<SolvedPotentials> abBefore;  // the same one step earlier
+  Eigen::VectorXd weightsA, weightsB;        // the last clouds' weights, as given
   SinkhornResult aa, bb;
-  Cloud aaCloud, bbCloud;
   double epsilon = 0.0;
   int p = 0;
   double tolerance = 0.0;
 };
+
+// The state in `ctx` when it was solved with the same ε, p and tolerance, else null.
+const SinkhornWarm* fittingWarm(const EvalContext& ctx, const SinkhornOptions& o) {
+  const auto* w = ctx.warm && *ctx.warm ? dynamic_cast<const SinkhornWarm*>(ctx.warm->get()) : nullptr;
+  return w && w->p == o.p && w->epsilon == o.epsilon && w->tolerance == o.tolerance ? w : nullptr;
+}
 
 struct ThreeSolves {
   SinkhornResult ab, aa, bb;
@@ -38,8 +44,11 @@ struct ThreeSolves {
 // solved on), or null.
 const SinkhornResult* reusableSelf(const SinkhornWarm* w, const Cloud& x) {
   if (!w) return nullptr;
-  for (const auto& [cloud, result] : {std::pair{&w->aaCloud, &w->aa}, std::pair{&w->bbCloud, &w->bb}})
-    if (result->status == SinkhornStatus::Converged && rigidlyCongruent(*cloud, x)) return result;
+  const std::tuple<const Eigen::MatrixX2d*, const Eigen::VectorXd*, const SinkhornResult*> terms[] = {
+      {&w->ab.x, &w->weightsA, &w->aa}, {&w->ab.y, &w->weightsB, &w->bb}};
+  for (const auto& [points, weights, result] : terms)
+    if (result->status == SinkhornStatus::Converged && *weights == x.weights && rigidlyMoved(*points, x.points, true))
+      return result;
   return nullptr;
 }
 
@@ -61,11 +70,7 @@ RunControl subControl(const RunControl* c, double lo, double hi) {
 ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, const EvalContext& ctx,
                      kernel::RowWorkers& team, bool withB = true) {
   const SinkhornOptions& o = s.options;
-  const SinkhornWarm* w = nullptr;
-  if (ctx.warm && *ctx.warm) {
-    w = dynamic_cast<const SinkhornWarm*>(ctx.warm->get());
-    if (w && (w->p != o.p || w->epsilon != o.epsilon || w->tolerance != o.tolerance)) w = nullptr;
-  }
+  const SinkhornWarm* w = fittingWarm(ctx, o);
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
   const RunControl* c = ctx.control;
   ThreeSolves t;
@@ -73,8 +78,7 @@ ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, 
   SinkhornStart start;
   Eigen::VectorXd f0, g0;
   if (w) {
-    startFromPath(w->abBefore ? &*w->abBefore : nullptr, {w->aaCloud.points, w->bbCloud.points, w->fab, w->gab},
-                  a.points, b.points, o.p, f0, g0);
+    startFromPath(w->abBefore ? &*w->abBefore : nullptr, w->ab, a.points, b.points, o.p, f0, g0);
     start = {&f0, &g0};
   }
   t.ab = solveSinkhorn(a.points, wa, b.points, wb, o, c ? &cab : nullptr, &start, &team);
@@ -156,16 +160,13 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   r.details["bb_reused"] = t.bbReused;
   if (ctx.warm) {
     auto w = std::make_shared<SinkhornWarm>();
-    const auto* before = *ctx.warm ? dynamic_cast<const SinkhornWarm*>(ctx.warm->get()) : nullptr;
-    if (before && before->p == s.options.p && before->epsilon == s.options.epsilon &&
-        before->tolerance == s.options.tolerance && before->fab.size() == a.size() && before->gab.size() == b.size())
-      w->abBefore = SolvedPotentials{before->aaCloud.points, before->bbCloud.points, before->fab, before->gab};
-    w->fab = std::move(t.ab.f);
-    w->gab = std::move(t.ab.g);
+    const SinkhornWarm* before = fittingWarm(ctx, s.options);
+    if (before && before->ab.f.size() == a.size() && before->ab.g.size() == b.size()) w->abBefore = before->ab;
+    w->ab = {a.points, b.points, std::move(t.ab.f), std::move(t.ab.g)};
+    w->weightsA = a.weights;
+    w->weightsB = b.weights;
     w->aa = std::move(t.aa);
     w->bb = std::move(t.bb);
-    w->aaCloud = a;
-    w->bbCloud = b;
     w->epsilon = s.options.epsilon;
     w->p = s.options.p;
     w->tolerance = s.options.tolerance;
