@@ -400,8 +400,10 @@ void SweepPlots::fitLegend() {
   const int items = legend->itemCount();
   if (items == 0) return;
   const int rowHeight = std::max(1, QFontMetrics(legend->font()).height() + legend->rowSpacing());
-  // The value pane gets 3/5 of the height (row stretch 3:2), less the axis margins.
-  const int available = plot_->height() * 3 / 5 - 24;
+  // The value pane's share of the height by the layout's row stretch, less its axis margins.
+  const QList<double> stretch = plot_->plotLayout()->rowStretchFactors();
+  const double share = stretch.size() >= 2 ? stretch[0] / (stretch[0] + stretch[1]) : 1.0;
+  const int available = int(plot_->height() * share) - 24;
   const int rows = std::max(1, available / rowHeight);
   const int wrap = items <= rows ? 0 : rows;
   if (legend->wrap() == wrap) return;
