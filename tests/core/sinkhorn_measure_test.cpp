@@ -107,7 +107,8 @@ TEST(SinkhornMeasureTest, WarmStartThroughTheContext) {
 }
 
 // Self terms depend only on distances within a cloud (the cost is |x−y|^p), so a rotated A
-// keeps OT_ε(a, a) and its potentials point by point; a stretched A does not.
+// keeps OT_ε(a, a) and its potentials point by point; a stretched A does not [D]; the reused
+// values are checked against a cold solve of the moved clouds.
 TEST(SinkhornMeasureTest, SelfTermReusedOnlyAfterARigidMove) {
   Cloud a = cloud(50, 14, 0.0);
   const Cloud b = cloud(40, 15, 0.7);
