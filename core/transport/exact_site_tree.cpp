@@ -53,6 +53,7 @@ int SiteTree::build(int begin, int end) {
 
 void SiteTree::setPotentials(const Eigen::Ref<const Eigen::ArrayXd>& v) {
   for (std::size_t t = 0; t < v_.size(); ++t) v_[t] = v(site_[t]);
+  const bool envelopes = cost_.kind() != CostKind::Power;
   for (std::size_t k = nodes_.size(); k-- > 0;) {
     Node& nd = nodes_[k];
     if (nd.left < 0) {
@@ -60,13 +61,76 @@ void SiteTree::setPotentials(const Eigen::Ref<const Eigen::ArrayXd>& v) {
     } else {
       nd.maxV = std::max(nodes_[std::size_t(nd.left)].maxV, nodes_[std::size_t(nd.right)].maxV);
     }
+    if (envelopes) fitEnvelope(nd);
   }
+}
+
+// Least-squares slope of v over the box's sites (the 2 × 2 normal equations; along the one
+// direction of spread when the sites are collinear, 0 when they coincide), then the
+// intercept that puts every site on or below the plane. Any slope gives a valid bound.
+void SiteTree::fitEnvelope(Node& nd) const {
+  const double ox = 0.5 * (nd.lo[0] + nd.hi[0]), oy = 0.5 * (nd.lo[1] + nd.hi[1]);
+  const double cnt = double(nd.end - nd.begin);
+  double mx = 0, my = 0, mv = 0;
+  for (int t = nd.begin; t < nd.end; ++t) mx += x_[std::size_t(t)] - ox, my += y_[std::size_t(t)] - oy, mv += v_[std::size_t(t)];
+  mx /= cnt, my /= cnt, mv /= cnt;
+  double sxx = 0, sxy = 0, syy = 0, sxv = 0, syv = 0, absV = 0;
+  for (int t = nd.begin; t < nd.end; ++t) {
+    const double dx = x_[std::size_t(t)] - ox - mx, dy = y_[std::size_t(t)] - oy - my, dv = v_[std::size_t(t)] - mv;
+    sxx += dx * dx, sxy += dx * dy, syy += dy * dy, sxv += dx * dv, syv += dy * dv;
+    absV = std::max(absV, std::abs(v_[std::size_t(t)]));
+  }
+  const double trace = sxx + syy, det = sxx * syy - sxy * sxy;
+  double bx = 0, by = 0;
+  if (det > 1e-9 * trace * trace) {
+    bx = (syy * sxv - sxy * syv) / det;
+    by = (sxx * syv - sxy * sxv) / det;
+  } else if (trace > 0) {  // collinear: fit along the principal direction only
+    const double lambda = 0.5 * (trace + std::sqrt(std::max(0.0, (sxx - syy) * (sxx - syy) + 4 * sxy * sxy)));
+    double ex = sxy, ey = lambda - sxx;
+    if (std::abs(ex) + std::abs(ey) == 0) ex = sxx >= syy ? 1 : 0, ey = sxx >= syy ? 0 : 1;
+    const double norm = std::hypot(ex, ey);
+    ex /= norm, ey /= norm;
+    const double slope = (ex * sxv + ey * syv) / lambda;
+    bx = slope * ex, by = slope * ey;
+  }
+  if (!std::isfinite(bx) || !std::isfinite(by)) bx = by = 0;
+  double top = -INFINITY;
+  for (int t = nd.begin; t < nd.end; ++t)
+    top = std::max(top, v_[std::size_t(t)] - bx * (x_[std::size_t(t)] - ox) - by * (y_[std::size_t(t)] - oy));
+  nd.slope[0] = bx, nd.slope[1] = by, nd.top = top;
+  const double widths = (nd.hi[0] - nd.lo[0]) + (nd.hi[1] - nd.lo[1]);
+  nd.size = std::abs(top) + absV + (std::abs(bx) + std::abs(by)) * widths + std::abs(ox) + std::abs(oy) + widths;
+}
+
+// The affine-envelope bound of the header (p = 1 or 2), lowered by the rounding margin.
+double SiteTree::envelopeBound(const Node& nd, double qx, double qy) const {
+  constexpr double kMargin = 1e-12;
+  const double ox = 0.5 * (nd.lo[0] + nd.hi[0]), oy = 0.5 * (nd.lo[1] + nd.hi[1]);
+  const double bx = nd.slope[0], by = nd.slope[1];
+  const double rx = qx - ox, ry = qy - oy;  // q − o
+  const double tilt = bx * rx + by * ry;    // b·(q − o)
+  const double reach = nd.size + std::abs(qx) + std::abs(qy) + std::abs(bx) + std::abs(by);
+  if (cost_.kind() == CostKind::Squared) {
+    const double px = qx + 0.5 * bx, py = qy + 0.5 * by;
+    const double dx = std::max({nd.lo[0] - px, 0.0, px - nd.hi[0]});
+    const double dy = std::max({nd.lo[1] - py, 0.0, py - nd.hi[1]});
+    return dx * dx + dy * dy - tilt - 0.25 * (bx * bx + by * by) - nd.top - kMargin * (reach * reach + reach);
+  }
+  const double len = std::sqrt(rx * rx + ry * ry);
+  if (!(len > 0)) return -INFINITY;
+  const double wx = -rx / len - bx, wy = -ry / len - by;  // e − b, e = (o − q)/|o − q|
+  const double low = (wx > 0 ? wx * (nd.lo[0] - qx) : wx * (nd.hi[0] - qx)) +
+                     (wy > 0 ? wy * (nd.lo[1] - qy) : wy * (nd.hi[1] - qy));
+  return low - tilt - nd.top - kMargin * reach * (2.0 + std::abs(bx) + std::abs(by));
 }
 
 double SiteTree::bound(const Node& nd, double qx, double qy) const {
   const double dx = std::max({nd.lo[0] - qx, 0.0, qx - nd.hi[0]});
   const double dy = std::max({nd.lo[1] - qy, 0.0, qy - nd.hi[1]});
-  return cost_.fromSquared(dx * dx + dy * dy) - nd.maxV;
+  const double near = cost_.fromSquared(dx * dx + dy * dy) - nd.maxV;
+  if (cost_.kind() == CostKind::Power) return near;
+  return std::max(near, envelopeBound(nd, qx, qy));
 }
 
 // Depth first, nearer (lower bound) child first; a node is entered while its bound is below

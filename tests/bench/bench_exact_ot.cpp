@@ -123,16 +123,18 @@ void runLemon(benchmark::State& state, Shape shape, bool randomWeights, double p
 // Warm start after a small move of A: the basis of the solve before the move is reused.
 // "shift": all of A translated by 1 % of the joint diameter (one step of a shift sweep);
 // "jitter": every point of A moved by up to 1 % of the diameter in a random direction;
-// "drag": one point moved by 10 % of the diameter. The cold solve of the same moved
-// instance is the matching "cold" benchmark.
-enum class Move { Shift, Jitter, Drag };
+// "drag": one point moved by 10 % of the diameter; "shift-apart": the shift, with B first
+// moved 1.5 to the right so that the supports lie apart (a shift sweep past overlap). The
+// cold solve of the same moved instance is the matching "cold" benchmark.
+enum class Move { Shift, Jitter, Drag, ShiftApart };
 
 Cloud moved(const Cloud& a, Move move, double diameter) {
   Cloud out = a;
   std::mt19937_64 rng(99);
   std::uniform_real_distribution<double> u(-1.0, 1.0);
   switch (move) {
-    case Move::Shift: out.points.col(0).array() += 0.01 * diameter; break;
+    case Move::Shift:
+    case Move::ShiftApart: out.points.col(0).array() += 0.01 * diameter; break;
     case Move::Jitter:
       for (Eigen::Index i = 0; i < out.size(); ++i) {
         const double t = M_PI * u(rng), r = 0.01 * diameter * (0.5 + 0.5 * u(rng));
@@ -145,7 +147,9 @@ Cloud moved(const Cloud& a, Move move, double diameter) {
 }
 
 void runMoved(benchmark::State& state, Move move, double p, int n, bool warm) {
-  const Cloud a = makeCloud(Shape::Uniform, n, true, true, 1), b = makeCloud(Shape::Uniform, n, true, false, 2);
+  const Cloud a = makeCloud(Shape::Uniform, n, true, true, 1);
+  Cloud b = makeCloud(Shape::Uniform, n, true, false, 2);
+  if (move == Move::ShiftApart) b.points.col(0).array() += 1.5;
   const Cloud a2 = moved(a, move, jointDiameter(a, b));
   ExactOtOptions o;
   o.p = p;
@@ -218,8 +222,8 @@ void registerAll() {
           ->Unit(benchmark::kMillisecond)
           ->MeasureProcessCPUTime()
           ->UseRealTime();
-  const char* moveName[] = {"shift1pct", "jitter1pct", "drag1point"};
-  for (int move = 0; move < 3; ++move)
+  const char* moveName[] = {"shift1pct", "jitter1pct", "drag1point", "shift1pct-apart"};
+  for (int move = 0; move < 4; ++move)
     for (double p : {1.0, 2.0})
       for (int n : {1000, 2000, 4000})
         for (bool warm : {false, true}) {

@@ -65,6 +65,96 @@ TEST(NetworkSimplexPartsTest, SiteTreeSearchesMatchAFullScan) {
   }
 }
 
+// [CP] Brute force again, now with potentials shaped like optimal ones, where the tree's
+// affine-envelope bound is what prunes: v nearly affine (clouds apart, W1 slope of length
+// about 1, W2 slope 2t), sites far from the queries, a large common offset of all
+// coordinates, collinear sites and exact ties along a W1 transport ray ([D] with
+// v_j = e·y_j, every site on the ray q + s·e scores exactly −e·q).
+TEST(NetworkSimplexPartsTest, SiteTreeEnvelopeBoundMatchesAFullScan) {
+  std::mt19937_64 rng(5);
+  std::uniform_real_distribution<double> u(-1.0, 1.0);
+  for (double p : {1.0, 2.0}) {
+    const GroundCost cost(p);
+    for (double offset : {0.0, 1e4}) {
+      for (int layout = 0; layout < 3; ++layout) {  // cloud apart, collinear sites, a ray of ties
+        const int m = 400;
+        Eigen::ArrayXd x(m), y(m), v(m);
+        const double ex = 0.8, ey = 0.6;  // unit direction from the queries to the sites
+        for (int j = 0; j < m; ++j) {
+          const double s = 3.0 + u(rng), w = layout == 1 ? 0.0 : u(rng);
+          x(j) = offset + (layout == 2 && j % 4 == 0 ? 0.1 * (j % 40) * ex : s * ex - w * ey);
+          y(j) = offset + (layout == 2 && j % 4 == 0 ? 0.1 * (j % 40) * ey : s * ey + w * ex);
+          const double rx = x(j) - offset, ry = y(j) - offset;
+          const double slope = p == 1.0 ? 1.0 : 6.0;  // W1: |∇v| ≈ 1; W2: ∇v = 2t, |t| ≈ 3
+          v(j) = slope * (ex * rx + ey * ry) + (layout == 2 && j % 4 == 0 ? 0.0 : 1e-3 * u(rng)) + 7.0;
+        }
+        SiteTree tree(x, y, cost);
+        tree.setPotentials(v);
+        for (int t = 0; t < 100; ++t) {
+          const double qx = offset + (t % 10 == 0 ? 0.0 : 0.5 * u(rng)), qy = offset + (t % 10 == 0 ? 0.0 : 0.5 * u(rng));
+          std::vector<std::pair<double, int>> all;
+          for (int j = 0; j < m; ++j) all.push_back({cost(qx, qy, x(j), y(j)) - v(j), j});
+          std::sort(all.begin(), all.end());
+          const double window = p == 1.0 ? 1e-9 : 0.02;
+          int ties = 0;
+          EXPECT_EQ(tree.minScore(qx, qy), all[0].first);
+          EXPECT_EQ(tree.minScore(qx, qy, window, &ties), all[0].first);
+          EXPECT_EQ(ties, std::count_if(all.begin(), all.end(), [&](const auto& e) { return e.first <= all[0].first + window; }));
+          for (double above : {0.0, 1e-3, 0.05}) {
+            const double limit = all[0].first + above;
+            std::vector<std::pair<double, int>> hits;
+            tree.below(qx, qy, limit, 12, &hits);
+            const auto expected = std::min<std::ptrdiff_t>(
+                12, std::count_if(all.begin(), all.end(), [&](const auto& e) { return e.first < limit; }));
+            ASSERT_EQ(std::ptrdiff_t(hits.size()), expected) << "p " << p << " layout " << layout << " offset " << offset;
+            for (std::size_t k = 0; k < hits.size(); ++k) EXPECT_EQ(hits[k].first, all[k].first);
+          }
+        }
+      }
+    }
+  }
+}
+
+// [D] Where the envelope is exact, a tie sits right at the bound and must still be found.
+// W1: sites on one line along e with v_j = e·y_j; from a query on that line behind them,
+// every site scores exactly −e·q, so all are ties. W2: sites on a grid of step 1/8 with
+// v_j = g·y_j; the score is |y_j − (q + g/2)|² − g·q − |g|²/4, and with q + g/2 on a site
+// (all in binary fractions, so every score is exact) that site and its four neighbours are
+// the only sites within h² of the minimum.
+TEST(NetworkSimplexPartsTest, SiteTreeEnvelopeBoundFindsTiesAtTheBound) {
+  {
+    const GroundCost cost(1.0);
+    const double ex = 0.6, ey = 0.8;
+    const int m = 64;
+    Eigen::ArrayXd x(m), y(m), v(m);
+    for (int j = 0; j < m; ++j) x(j) = (2.0 + 0.125 * j) * ex, y(j) = (2.0 + 0.125 * j) * ey, v(j) = ex * x(j) + ey * y(j);
+    SiteTree tree(x, y, cost);
+    tree.setPotentials(v);
+    int ties = 0;
+    const double best = tree.minScore(-ex, -ey, 1e-9, &ties);
+    EXPECT_NEAR(best, 1.0, 1e-14);
+    EXPECT_EQ(ties, m);
+  }
+  {
+    const GroundCost cost(2.0);
+    const double gx = 0.75, gy = -1.5, h = 0.125;
+    Eigen::ArrayXd x(400), y(400), v(400);
+    for (int j = 0; j < 400; ++j) x(j) = 3.0 + h * (j % 20), y(j) = h * (j / 20), v(j) = gx * x(j) + gy * y(j);
+    SiteTree tree(x, y, cost);
+    tree.setPotentials(v);
+    for (int j : {21, 147, 230, 378}) {
+      const double qx = x(j) - 0.5 * gx, qy = y(j) - 0.5 * gy;
+      const double expected = -(gx * qx + gy * qy) - 0.25 * (gx * gx + gy * gy);
+      int ties = 0;
+      EXPECT_EQ(tree.minScore(qx, qy, h * h, &ties), expected);
+      EXPECT_EQ(ties, 5) << "site " << j;
+      std::vector<std::pair<double, int>> hits;
+      tree.below(qx, qy, expected + h * h + 1e-12, 8, &hits);
+      EXPECT_EQ(hits.size(), 5u) << "site " << j;
+    }
+  }
+}
+
 // [D] Groups hold at most groupSize points, and their masses add up to the same total.
 TEST(NetworkSimplexPartsTest, CoarseGroupsKeepTheTotalMass) {
   std::mt19937_64 rng(4);
