@@ -125,11 +125,11 @@ double SiteTree::envelopeBound(const Node& nd, double qx, double qy) const {
   return low - tilt - nd.top - kMargin * reach * (2.0 + std::abs(bx) + std::abs(by));
 }
 
-double SiteTree::bound(const Node& nd, double qx, double qy) const {
+double SiteTree::bound(const Node& nd, double qx, double qy, double threshold) const {
   const double dx = std::max({nd.lo[0] - qx, 0.0, qx - nd.hi[0]});
   const double dy = std::max({nd.lo[1] - qy, 0.0, qy - nd.hi[1]});
   const double near = cost_.fromSquared(dx * dx + dy * dy) - nd.maxV;
-  if (cost_.kind() == CostKind::Power) return near;
+  if (cost_.kind() == CostKind::Power || near >= threshold) return near;
   return std::max(near, envelopeBound(nd, qx, qy));
 }
 
@@ -143,7 +143,7 @@ void SiteTree::search(double qx, double qy, const double& threshold, bool inclus
   double bounds[128];
   int top = 0;
   stack[top] = 0;
-  bounds[top++] = bound(nodes_[0], qx, qy);
+  bounds[top++] = bound(nodes_[0], qx, qy, threshold);
   while (top > 0) {
     --top;
     if (!enter(bounds[top])) continue;
@@ -152,8 +152,8 @@ void SiteTree::search(double qx, double qy, const double& threshold, bool inclus
       leaf(nd.begin, nd.end);
       continue;
     }
-    const double bl = bound(nodes_[std::size_t(nd.left)], qx, qy);
-    const double br = bound(nodes_[std::size_t(nd.right)], qx, qy);
+    const double bl = bound(nodes_[std::size_t(nd.left)], qx, qy, threshold);
+    const double br = bound(nodes_[std::size_t(nd.right)], qx, qy, threshold);
     const bool leftFirst = bl <= br;
     stack[top] = leftFirst ? nd.right : nd.left;
     bounds[top++] = leftFirst ? br : bl;

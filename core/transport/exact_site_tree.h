@@ -51,7 +51,8 @@ class SiteTree {
   int build(int begin, int end);
   void fitEnvelope(Node& nd) const;
   double envelopeBound(const Node& nd, double qx, double qy) const;
-  double bound(const Node& nd, double qx, double qy) const;
+  /// A lower bound on the box's scores; the cheap one alone once it reaches `threshold`.
+  double bound(const Node& nd, double qx, double qy, double threshold) const;
   double score(int t, double qx, double qy) const {
     const double dx = x_[std::size_t(t)] - qx, dy = y_[std::size_t(t)] - qy;
     return cost_.fromSquared(dx * dx + dy * dy) - v_[std::size_t(t)];
