@@ -119,7 +119,8 @@ double SiteTree::envelopeBound(const Node& nd, double qx, double qy) const {
   }
   const double len = std::sqrt(rx * rx + ry * ry);
   if (!(len > 0)) return -INFINITY;
-  const double wx = -rx / len - bx, wy = -ry / len - by;  // e − b, e = (o − q)/|o − q|
+  const double inv = 1.0 / len;
+  const double wx = -rx * inv - bx, wy = -ry * inv - by;  // e − b, e = (o − q)/|o − q|
   const double low = (wx > 0 ? wx * (nd.lo[0] - qx) : wx * (nd.hi[0] - qx)) +
                      (wy > 0 ? wy * (nd.lo[1] - qy) : wy * (nd.hi[1] - qy));
   return low - tilt - nd.top - kMargin * reach * (2.0 + std::abs(bx) + std::abs(by));
@@ -129,7 +130,8 @@ double SiteTree::bound(const Node& nd, double qx, double qy, double threshold) c
   const double dx = std::max({nd.lo[0] - qx, 0.0, qx - nd.hi[0]});
   const double dy = std::max({nd.lo[1] - qy, 0.0, qy - nd.hi[1]});
   const double near = cost_.fromSquared(dx * dx + dy * dy) - nd.maxV;
-  if (cost_.kind() == CostKind::Power || near >= threshold) return near;
+  // The envelope pays for boxes apart from q; for one around q the distance bound is as good.
+  if (cost_.kind() == CostKind::Power || near >= threshold || dx + dy == 0) return near;
   return std::max(near, envelopeBound(nd, qx, qy));
 }
 
