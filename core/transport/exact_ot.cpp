@@ -39,9 +39,14 @@ struct LevelOutcome {
   std::vector<std::pair<int, int>> added;        // arcs found by pricing
   std::shared_ptr<SiteTree> sinks;               // tree over the sinks, for pricing
   std::shared_ptr<kernel::RowWorkers> team;      // pricing threads; null for small problems
+  SourceMinima minima;                           // v^c and ties from the last pricing pass
+  bool certified = false;                        // that pass found nothing: minima are final
   long long pivots = 0, degenerate = 0;
   int rounds = 0;
 };
+
+// Sinks within this many tolerances of a source's minimum count as ties (plan uniqueness).
+constexpr double kTieWindow = 4.0;
 
 int arcId(const std::vector<std::pair<int, int>>& sorted, int i, int j) {
   return int(std::lower_bound(sorted.begin(), sorted.end(), std::make_pair(i, j)) - sorted.begin());
@@ -68,6 +73,7 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
   if (pr.n() >= kMinSourcesForTeam) out.team = std::make_shared<kernel::RowWorkers>();
   out.u.resize(pr.n());
   out.v.resize(pr.m());
+  out.minima.window = kTieWindow * tol;
   while (true) {
     const auto st = ns.run(tol, budget, control);
     if (st == NetworkSimplex::RunStatus::Cancelled) {
@@ -82,12 +88,15 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
     }
     violated.clear();
     if (!priceAllPairs(pr, *out.sinks, out.u, out.v, tol, o.arcsPerRow, &violated, control, ns.progress(),
-                       out.team.get())) {
+                       out.team.get(), &out.minima)) {
       out.status = ExactOtStatus::Cancelled;
       break;
     }
     ++out.rounds;
-    if (violated.empty()) break;
+    if (violated.empty()) {
+      out.certified = true;
+      break;
+    }
     for (const auto& [i, j] : violated) ns.addArc(i, j, pr.c(i, j));
     out.added.insert(out.added.end(), violated.begin(), violated.end());
   }
@@ -150,7 +159,12 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
 void fillPotentials(const Cloud& a, const Cloud& b, const ExactProblem& pr, const LevelOutcome& out, double zeroTol,
                     ExactOtResult* r, std::vector<int>* ties) {
   Eigen::ArrayXd u;
-  cTransformSources(pr, *out.sinks, out.v, zeroTol, &u, ties, out.team.get());
+  if (out.certified) {  // the last pricing pass computed them for these very v
+    u = out.minima.u;
+    *ties = out.minima.ties;
+  } else {
+    cTransformSources(pr, *out.sinks, out.v, zeroTol, &u, ties, out.team.get());
+  }
   r->u.resize(a.size());
   r->v.resize(b.size());
   for (int i = 0; i < pr.n(); ++i) r->u(pr.rowA[std::size_t(i)]) = u(i);
@@ -239,7 +253,7 @@ ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions&
   if (r.status == ExactOtStatus::Cancelled) return finish("cancelled");
 
   std::vector<int> ties;
-  fillPotentials(a, b, pr, out, 4.0 * tol, &r, &ties);
+  fillPotentials(a, b, pr, out, kTieWindow * tol, &r, &ties);
   fillPlan(a, b, pr, out, ties, &r);
   if (r.status == ExactOtStatus::IterationLimit)
     return finish("pivot limit of " + std::to_string(options.maxPivots) + " reached before optimality");

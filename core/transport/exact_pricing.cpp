@@ -35,11 +35,47 @@ void overSources(int n, kernel::RowWorkers* team, const std::function<void(int, 
 
 }  // namespace
 
+namespace {
+
+// One source of a pricing pass that also finds v^c(x_i) and its ties. The search collects the
+// lowest scores below u_i + window + tol: v^c(x_i) <= u_i (a basis arc of row i is tight), so
+// that covers the minimum and its window, and when the list did not fill up it holds every
+// such site, so the ties are counted from it; otherwise (many violations or many ties) a
+// search of its own counts them. Violated arcs are the list's first ones below u_i − tol.
+void priceAndMinimise(const SiteTree& tree, double x, double y, double ui, double tol, int perRow,
+                      SourceMinima* minima, int i, std::vector<std::pair<double, int>>* hits,
+                      std::vector<std::pair<int, int>>* found) {
+  constexpr int kTieProbe = 8;
+  const int probe = std::max(perRow, kTieProbe);
+  const double window = minima->window, limit = ui + window + tol;
+  tree.below(x, y, limit, probe, hits);
+  if (!hits->empty() && int(hits->size()) < probe && hits->front().first + window < limit) {
+    const double best = hits->front().first;
+    minima->u(i) = best;
+    minima->ties[std::size_t(i)] =
+        int(std::count_if(hits->begin(), hits->end(), [&](const auto& h) { return h.first <= best + window; }));
+  } else {
+    minima->u(i) = tree.minScore(x, y, window, &minima->ties[std::size_t(i)]);
+  }
+  int added = 0;
+  for (const auto& [score, j] : *hits) {
+    if (!(score < ui - tol) || added == perRow) break;
+    found->emplace_back(i, j);
+    ++added;
+  }
+}
+
+}  // namespace
+
 bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v,
                    double tol, int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
-                   double progress, kernel::RowWorkers* team) {
+                   double progress, kernel::RowWorkers* team, SourceMinima* minima) {
   sinks.setPotentials(v);
   const SiteTree& tree = sinks;
+  if (minima) {
+    minima->u.resize(pr.n());
+    minima->ties.assign(std::size_t(pr.n()), 0);
+  }
   // Only the calling thread may touch `control` (its callbacks need not be thread-safe).
   const std::thread::id caller = std::this_thread::get_id();
   std::atomic<bool> stop{false};
@@ -52,6 +88,10 @@ bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd
     std::vector<std::pair<double, int>> hits;
     auto& mine = found[std::size_t(begin / kGrain)];
     for (int i = begin; i < end; ++i) {
+      if (minima) {
+        priceAndMinimise(tree, pr.ax(i), pr.ay(i), u(i), tol, perRow, minima, i, &hits, &mine);
+        continue;
+      }
       tree.below(pr.ax(i), pr.ay(i), u(i) - tol, perRow, &hits);
       for (const auto& [score, j] : hits) mine.emplace_back(i, j);
     }

@@ -18,13 +18,24 @@
 
 namespace barrow {
 
+/// What a pricing pass can learn on the way, per source: v^c(x_i) = min_j (c_ij − v_j) and
+/// how many sinks score within `window` of it, exactly as cTransformSources gives them. When
+/// the pass finds nothing violated these are the solve's final potentials, so the solver needs
+/// no separate c-transform pass.
+struct SourceMinima {
+  double window = 0.0;
+  Eigen::ArrayXd u;
+  std::vector<int> ties;
+};
+
 /// Arcs with reduced cost c_ij − u_i − v_j < −tol, at most `perRow` per source (the most
 /// negative ones). u, v are over the active points; `sinks` is a tree over pr's sinks (its
 /// potentials are set to v here). Returns false when `control` asked to stop (polled every
-/// 256 rows, reporting `progress`); `violated` then holds what was found.
+/// 256 rows, reporting `progress`); `violated` then holds what was found. With `minima`
+/// (window set by the caller) the same searches also fill its u and ties.
 bool priceAllPairs(const ExactProblem& pr, SiteTree& sinks, const Eigen::ArrayXd& u, const Eigen::ArrayXd& v,
                    double tol, int perRow, std::vector<std::pair<int, int>>* violated, const RunControl* control,
-                   double progress, kernel::RowWorkers* team = nullptr);
+                   double progress, kernel::RowWorkers* team = nullptr, SourceMinima* minima = nullptr);
 
 /// u_i = v^c(x_i) for every active source, and per source the number of sinks whose
 /// c_ij − v_j lies within zeroTol of that minimum (the basis arcs plus any ties).

@@ -7,6 +7,7 @@
 #include <cmath>
 
 #include "support/test_support.h"
+#include "transport/exact_ot.h"
 #include "transport/exact_pricing.h"
 
 namespace barrow {
@@ -21,11 +22,16 @@ struct Priced {
     u = Eigen::ArrayXd::Random(pr.n()) * 0.2 + 0.5;
     v = Eigen::ArrayXd::Random(pr.m()) * 0.2;
   }
-  std::vector<std::pair<int, int>> price(kernel::RowWorkers* team, int perRow) {
+  std::vector<std::pair<int, int>> price(kernel::RowWorkers* team, int perRow, SourceMinima* minima = nullptr) {
     SiteTree sinks(pr.bx, pr.by, pr.cost);
     std::vector<std::pair<int, int>> found;
-    EXPECT_TRUE(priceAllPairs(pr, sinks, u, v, tol, perRow, &found, nullptr, 0.0, team));
+    EXPECT_TRUE(priceAllPairs(pr, sinks, u, v, tol, perRow, &found, nullptr, 0.0, team, minima));
     return found;
+  }
+  // v^c and ties as the separate pass gives them.
+  void cTransform(double window, Eigen::ArrayXd* cu, std::vector<int>* ties) {
+    SiteTree sinks(pr.bx, pr.by, pr.cost);
+    cTransformSources(pr, sinks, v, window, cu, ties);
   }
 };
 
@@ -66,6 +72,41 @@ TEST(ExactPricingTest, CTransformIsTheSameWithAThreadTeam) {
     double best = INFINITY;
     for (int j = 0; j < t.pr.m(); ++j) best = std::min(best, t.pr.c(i, j) - t.v(j));
     EXPECT_DOUBLE_EQ(alone(i), best);
+  }
+}
+
+// A pricing pass that also reports v^c and its ties must report what the separate c-transform
+// pass does (that pass is the reference: its search is checked against the definition above),
+// and must price the same arcs as a plain pass. Random potentials give rows with many
+// violations (the count falls back to a search of its own); the potentials of an optimal solve
+// give the final pass of a solve, where nothing is violated. Common practice.
+TEST(ExactPricingTest, MinimaFromPricingMatchTheCTransformPass) {
+  for (double p : {1.0, 2.0}) {
+    Priced t(700, p);
+    for (bool optimal : {false, true}) {
+      if (optimal) {
+        const Cloud a = test::gaussianCloud(700, 1), b = test::gaussianCloud(707, 2, 0.3);
+        ExactOtOptions o;
+        o.p = p;
+        const ExactOtResult r = solveExactOt(a, b, o);
+        ASSERT_EQ(r.status, ExactOtStatus::Optimal);
+        t.u = r.u.array();
+        t.v = r.v.array();
+      }
+      for (double window : {0.0, 4e-12, 0.02}) {
+        SourceMinima minima;
+        minima.window = window;
+        kernel::RowWorkers team(2);
+        const auto withMinima = t.price(&team, 8, &minima), plain = t.price(nullptr, 8);
+        EXPECT_EQ(withMinima, plain);
+        EXPECT_EQ(plain.empty(), optimal);
+        Eigen::ArrayXd cu;
+        std::vector<int> ties;
+        t.cTransform(window, &cu, &ties);
+        EXPECT_TRUE((minima.u == cu).all()) << "p " << p << " optimal " << optimal << " window " << window;
+        EXPECT_EQ(minima.ties, ties) << "p " << p << " optimal " << optimal << " window " << window;
+      }
+    }
   }
 }
 
