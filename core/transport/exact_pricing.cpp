@@ -33,10 +33,6 @@ void overSources(int n, kernel::RowWorkers* team, const std::function<void(int, 
   for (int b = 0; b < n; b += kGrain) body(b, std::min(n, b + kGrain));
 }
 
-}  // namespace
-
-namespace {
-
 // One source of a pricing pass that also finds v^c(x_i) and its ties. The search collects the
 // lowest scores below u_i + window + tol: v^c(x_i) <= u_i (a basis arc of row i is tight), so
 // that covers the minimum and its window, and when the list did not fill up it holds every
