@@ -32,6 +32,15 @@ EvalRequest request(double eps, int p, double tolerance = 1e-11) {
   return test::entropicRequest("sinkhorn", eps, p, tolerance);
 }
 
+// A request for p = 2 that keeps its solver state in `*warm`, after one evaluation on (a, b)
+// has filled it: what a sweep holds before its next step.
+EvalRequest primedRequest(const Cloud& a, const Cloud& b, double eps, double tolerance, std::shared_ptr<WarmState>* warm) {
+  EvalRequest req = request(eps, 2, tolerance);
+  req.warm = warm;
+  evaluateMeasure(SinkhornMeasure(), a, b, req);
+  return req;
+}
+
 double divergence(const Cloud& a, const Cloud& b, double eps, int p) {
   const Result r = evaluateMeasure(SinkhornMeasure(), a, b, request(eps, p));
   EXPECT_EQ(r.status, Status::Ok) << r.message;
@@ -86,14 +95,13 @@ TEST(SinkhornMeasureTest, DebiasedPotentialsAreFlatOnIdenticalClouds) {
   EXPECT_NEAR(r.details["ot_ab"].get<double>(), r.details["ot_aa"].get<double>(), 1e-9);
 }
 
-// A sweep step: the state left in ctx.warm makes the next evaluation cheaper and the same.
+// A sweep step: the state left in ctx.warm makes the next evaluation cheaper and the same as
+// a cold solve of the moved clouds (the cold solve is the reference; common practice).
 TEST(SinkhornMeasureTest, WarmStartThroughTheContext) {
   Cloud a = cloud(70, 8, 0.0);
   const Cloud b = cloud(60, 9, 0.5);
   std::shared_ptr<WarmState> warm;
-  EvalRequest req = request(0.01, 2, 1e-9);
-  req.warm = &warm;
-  evaluateMeasure(SinkhornMeasure(), a, b, req);
+  const EvalRequest req = primedRequest(a, b, 0.01, 1e-9, &warm);
   a.points.col(0).array() += 0.01;
   const Result cold = evaluateMeasure(SinkhornMeasure(), a, b, request(0.01, 2, 1e-9));
   const Result hot = evaluateMeasure(SinkhornMeasure(), a, b, req);
@@ -110,12 +118,10 @@ TEST(SinkhornMeasureTest, WarmStartThroughTheContext) {
 // keeps OT_ε(a, a) and its potentials point by point; a stretched A does not [D]; the reused
 // values are checked against a cold solve of the moved clouds.
 TEST(SinkhornMeasureTest, SelfTermReusedOnlyAfterARigidMove) {
-  Cloud a = cloud(50, 14, 0.0);
+  const Cloud a = cloud(50, 14, 0.0);
   const Cloud b = cloud(40, 15, 0.7);
   std::shared_ptr<WarmState> warm;
-  EvalRequest req = request(0.05, 2, 1e-10);
-  req.warm = &warm;
-  evaluateMeasure(SinkhornMeasure(), a, b, req);
+  const EvalRequest req = primedRequest(a, b, 0.05, 1e-10, &warm);
 
   const double t = 0.4;  // radians, about the origin
   Cloud rotated = a;
