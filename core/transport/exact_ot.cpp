@@ -40,7 +40,7 @@ struct LevelOutcome {
   std::shared_ptr<SiteTree> sinks;               // tree over the sinks, for pricing
   std::shared_ptr<kernel::RowWorkers> team;      // pricing threads; null for small problems
   SourceMinima minima;                           // v^c and ties from the last pricing pass
-  bool certified = false;                        // that pass found nothing: minima are final
+                                                 // (final when the status is Optimal)
   long long pivots = 0, degenerate = 0;
   int rounds = 0;
 };
@@ -93,10 +93,7 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
       break;
     }
     ++out.rounds;
-    if (violated.empty()) {
-      out.certified = true;
-      break;
-    }
+    if (violated.empty()) break;
     for (const auto& [i, j] : violated) ns.addArc(i, j, pr.c(i, j));
     out.added.insert(out.added.end(), violated.begin(), violated.end());
   }
@@ -159,7 +156,7 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
 void fillPotentials(const Cloud& a, const Cloud& b, const ExactProblem& pr, const LevelOutcome& out, double zeroTol,
                     ExactOtResult* r, std::vector<int>* ties) {
   Eigen::ArrayXd u;
-  if (out.certified) {  // the last pricing pass computed them for these very v
+  if (out.status == ExactOtStatus::Optimal) {  // the last pricing pass found them for these v
     u = out.minima.u;
     *ties = out.minima.ties;
   } else {
