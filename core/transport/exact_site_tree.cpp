@@ -65,8 +65,8 @@ void SiteTree::setPotentials(const Eigen::Ref<const Eigen::ArrayXd>& v) {
   }
 }
 
-// Least-squares slope of v over the box's sites (the 2 × 2 normal equations; along the one
-// direction of spread when the sites are collinear, 0 when they coincide), then the
+// Least-squares slope of v over the box's sites, with a ridge of 1e-9 of the spread so that
+// collinear sites get the slope along their line and coincident ones none; then the
 // intercept that puts every site on or below the plane. Any slope gives a valid bound.
 void SiteTree::fitEnvelope(Node& nd) const {
   const double ox = 0.5 * (nd.lo[0] + nd.hi[0]), oy = 0.5 * (nd.lo[1] + nd.hi[1]);
@@ -80,19 +80,13 @@ void SiteTree::fitEnvelope(Node& nd) const {
     sxx += dx * dx, sxy += dx * dy, syy += dy * dy, sxv += dx * dv, syv += dy * dv;
     absV = std::max(absV, std::abs(v_[std::size_t(t)]));
   }
-  const double trace = sxx + syy, det = sxx * syy - sxy * sxy;
+  const double ridge = 1e-9 * (sxx + syy);
+  sxx += ridge, syy += ridge;
+  const double det = sxx * syy - sxy * sxy;
   double bx = 0, by = 0;
-  if (det > 1e-9 * trace * trace) {
+  if (det > 0) {
     bx = (syy * sxv - sxy * syv) / det;
     by = (sxx * syv - sxy * sxv) / det;
-  } else if (trace > 0) {  // collinear: fit along the principal direction only
-    const double lambda = 0.5 * (trace + std::sqrt(std::max(0.0, (sxx - syy) * (sxx - syy) + 4 * sxy * sxy)));
-    double ex = sxy, ey = lambda - sxx;
-    if (std::abs(ex) + std::abs(ey) == 0) ex = sxx >= syy ? 1 : 0, ey = sxx >= syy ? 0 : 1;
-    const double norm = std::hypot(ex, ey);
-    ex /= norm, ey /= norm;
-    const double slope = (ex * sxv + ey * syv) / lambda;
-    bx = slope * ex, by = slope * ey;
   }
   if (!std::isfinite(bx) || !std::isfinite(by)) bx = by = 0;
   double top = -INFINITY;
