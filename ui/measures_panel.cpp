@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "measure_style.h"
+#include "measures/param_text.h"
 #include "param_editor.h"
 #include "result_text.h"
 
@@ -131,7 +132,7 @@ void MeasuresPanel::build() {
       child->setData(kName, kIdRole, id);
       child->setData(kValue, kKeyRole, key);
       child->setText(kChange, QString::fromStdString(p.unit));
-      child->setText(kStatus, rangeShort(p));
+      child->setText(kStatus, QString::fromStdString(barrow::rangeShort(p)));
       const QString tip = QString::fromStdString(p.help) + "\n" + tr("Valid: %1").arg(describeRange(p)) +
                           "\n" + tr("Default: %1").arg(QString::fromStdString(p.defaultValue)) +
                           "\n" + tr("Double-click the value to change it.");

@@ -3,7 +3,6 @@
 #include <QComboBox>
 #include <QLineEdit>
 
-#include "measures/param_text.h"
 
 namespace barrow::ui {
 
@@ -25,9 +24,8 @@ QString describeRange(const ParamSpec& s) {
     case ParamKind::Integer:
     case ParamKind::RealPair: {
       QString r;
-      const bool hasMin = s.min > -1e299, hasMax = s.max < 1e299;
-      if (hasMin) r = (s.minExclusive ? "> " : "≥ ") + num(s.min);
-      if (hasMax) r += (r.isEmpty() ? "" : QObject::tr(" and ")) + "≤ " + num(s.max);
+      if (s.hasMin()) r = (s.minExclusive ? "> " : "≥ ") + num(s.min);
+      if (s.hasMax()) r += (r.isEmpty() ? "" : QObject::tr(" and ")) + "≤ " + num(s.max);
       if (r.isEmpty()) r = QObject::tr("any number");
       if (s.kind == ParamKind::Integer) r = QObject::tr("whole number, %1").arg(r);
       if (s.kind == ParamKind::RealPair) r = QObject::tr("s or sx,sy, each %1").arg(r);
@@ -37,8 +35,6 @@ QString describeRange(const ParamSpec& s) {
   }
   return {};
 }
-
-QString rangeShort(const ParamSpec& s) { return QString::fromStdString(barrow::rangeShort(s)); }
 
 ParamDelegate::ParamDelegate(SpecLookup specOf, QObject* parent)
     : QStyledItemDelegate(parent), specOf_(std::move(specOf)) {}

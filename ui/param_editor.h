@@ -14,8 +14,6 @@ namespace barrow::ui {
 
 /// "≥ 0", "> 0 and ≤ 1", "one of hist, kde, knn": the valid values of a spec in words.
 QString describeRange(const ParamSpec& spec);
-/// The same in a few characters for a table cell: "> 0 | auto", "(0, 1]", "hist|kde|knn".
-QString rangeShort(const ParamSpec& spec);
 
 class ParamDelegate : public QStyledItemDelegate {
   Q_OBJECT

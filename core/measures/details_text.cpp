@@ -1,6 +1,6 @@
 #include "measures/details_text.h"
 
-#include <cstdio>
+#include "measures/number_text.h"
 
 namespace barrow {
 
@@ -10,11 +10,7 @@ std::string scalarText(const nlohmann::json& v) {
   if (v.is_string()) return v.get<std::string>();
   if (v.is_boolean()) return v.get<bool>() ? "true" : "false";
   if (v.is_number_integer() || v.is_number_unsigned()) return v.dump();
-  if (v.is_number_float()) {
-    char text[32];
-    std::snprintf(text, sizeof text, "%.6g", v.get<double>());
-    return text;
-  }
+  if (v.is_number_float()) return sixDigits(v.get<double>());
   if (v.is_null()) return "none";
   if (v.is_array()) {
     std::string s;

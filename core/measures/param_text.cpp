@@ -1,16 +1,10 @@
 #include "measures/param_text.h"
 
-#include <cstdio>
+#include "measures/number_text.h"
 
 namespace barrow {
 
 namespace {
-
-std::string num(double v) {
-  char text[32];
-  std::snprintf(text, sizeof text, "%.6g", v);
-  return text;
-}
 
 std::string joined(const std::vector<std::string>& words) {
   std::string s;
@@ -23,11 +17,10 @@ std::string joined(const std::vector<std::string>& words) {
 std::string rangeShort(const ParamSpec& s) {
   if (s.kind == ParamKind::Boolean) return "true|false";
   if (s.kind == ParamKind::Choice) return joined(s.choices);
-  const bool hasMin = s.min > -1e299, hasMax = s.max < 1e299;
   std::string r;
-  if (hasMin && hasMax) r = (s.minExclusive ? "(" : "[") + num(s.min) + ", " + num(s.max) + "]";
-  else if (hasMin) r = (s.minExclusive ? "> " : "≥ ") + num(s.min);
-  else if (hasMax) r = "≤ " + num(s.max);
+  if (s.hasMin() && s.hasMax()) r = (s.minExclusive ? "(" : "[") + sixDigits(s.min) + ", " + sixDigits(s.max) + "]";
+  else if (s.hasMin()) r = (s.minExclusive ? "> " : "≥ ") + sixDigits(s.min);
+  else if (s.hasMax()) r = "≤ " + sixDigits(s.max);
   else r = "any";
   if (s.kind == ParamKind::RealPair) r += " (or x,y)";
   if (!s.choices.empty()) r += " | " + joined(s.choices);

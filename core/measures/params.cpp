@@ -1,5 +1,7 @@
 #include "measures/params.h"
 
+#include "measures/number_text.h"
+
 #include <algorithm>
 #include <charconv>
 #include <cmath>
@@ -8,19 +10,11 @@
 
 namespace barrow {
 
-namespace {
+void ParamSet::setNumber(const std::string& key, double value) { values_[key] = shortestText(value); }
 
-std::string roundTrip(double v) {
-  char buf[32];
-  const auto res = std::to_chars(buf, buf + sizeof buf, v);
-  return std::string(buf, res.ptr);
+void ParamSet::setPair(const std::string& key, double x, double y) {
+  values_[key] = shortestText(x) + "," + shortestText(y);
 }
-
-}  // namespace
-
-void ParamSet::setNumber(const std::string& key, double value) { values_[key] = roundTrip(value); }
-
-void ParamSet::setPair(const std::string& key, double x, double y) { values_[key] = roundTrip(x) + "," + roundTrip(y); }
 
 std::optional<double> parseNumber(const std::string& text) {
   std::string t = text;
@@ -51,7 +45,7 @@ bool isWordOf(const ParamSpec& spec, const std::string& v) {
 std::string rangeText(const ParamSpec& s) {
   std::ostringstream o;
   o << (s.minExclusive ? "> " : ">= ") << s.min;
-  if (s.max < 1e299) o << " and <= " << s.max;
+  if (s.hasMax()) o << " and <= " << s.max;
   return o.str();
 }
 

@@ -29,6 +29,10 @@ struct ParamSpec {
                                      // accepted instead of a number ("median", "auto")
   std::string unit;           // "cost units", "directions", "" ...
   std::string help;           // one line, shown in --help and tooltips
+
+  /// Whether the bounds are real limits (the defaults ±1e300 mean "none").
+  bool hasMin() const { return min > -1e299; }
+  bool hasMax() const { return max < 1e299; }
 };
 
 /// Checks one value against its spec; returns the reason it is invalid.

@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "io/atomic_write.h"
+#include "measures/number_text.h"
 
 namespace barrow {
 
@@ -13,10 +14,7 @@ namespace {
 // Shortest text that reads back to the same double; "" for NaN (a failed cell).
 std::string cell(double v) {
   if (std::isnan(v)) return "";
-  if (std::isinf(v)) return v > 0 ? "inf" : "-inf";
-  char buf[64];
-  const auto res = std::to_chars(buf, buf + sizeof buf, v);
-  return std::string(buf, res.ptr);
+  return shortestText(v);
 }
 
 std::string joined(const std::vector<std::string>& parts, char sep) {

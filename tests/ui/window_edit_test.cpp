@@ -243,7 +243,7 @@ TEST(WindowEditTest, ParameterEditedInPlaceIsValidatedThenUndoable) {
   ParamSpec spec;
   for (const Measure* m : MeasureRegistry::instance().all())
     for (const auto& p : m->params())
-      if (!child && p.kind == ParamKind::Real && p.min > -1e299)
+      if (!child && p.kind == ParamKind::Real && p.hasMin())
         for (int r = 0; r < tree->topLevelItemCount() && !child; ++r)
           for (int c = 0; c < tree->topLevelItem(r)->childCount(); ++c)
             if (tree->topLevelItem(r)->child(c)->data(1, Qt::UserRole + 2).toString().toStdString() == p.key) {
@@ -268,7 +268,7 @@ TEST(WindowEditTest, ParameterEditedInPlaceIsValidatedThenUndoable) {
   EXPECT_FALSE(w->session().params.has(key));
   EXPECT_EQ(w->document()->undoStack()->count(), 0);
   // A valid value is used, shown in the cell, and is one undo step.
-  const double good = spec.min + 0.25 + (spec.max < 1e299 ? 0.0 : 1.0);
+  const double good = spec.min + 0.25 + (spec.hasMax() ? 0.0 : 1.0);
   commit(QString::number(good));
   ASSERT_TRUE(w->session().params.has(key));
   EXPECT_EQ(w->session().params.real(key), good);
