@@ -62,8 +62,6 @@ SweepJob::SweepJob(const Measure& m, const ParamSet& user, const Cloud& a0, cons
   req.warm = &state;
   const Result r = evaluateMeasure(m, a0, b, req);
   details_ = r.details;
-  // The reference evaluation ran on the frozen numbers; say which rule produced them.
-  for (const auto& [k, v] : rules_.values()) details_["frozen_from"][k] = v;
   if (wantAnalytic && r.usable() && std::isfinite(r.value))
     analytic_ = tryGradient(m, a0, b, frozen_, r, control, &state).has_value();
 }

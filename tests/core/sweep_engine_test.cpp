@@ -248,7 +248,6 @@ TEST(SweepEngineTest, DataDependentSettingIsFrozenAtTheReference) {
   for (std::size_t k = 0; k < r.theta.size(); ++k) EXPECT_NEAR(s.value[k], (1.0 / 3.0 + r.theta[k]) / used, 1e-12);
   // The record says where the number came from.
   EXPECT_EQ(s.rules.text("test.scale"), "auto");
-  EXPECT_EQ(s.details["frozen_from"]["test.scale"], "auto");
 }
 
 TEST(SweepEngineTest, WarmStatePassesBetweenNeighboursWithinEachThread) {
