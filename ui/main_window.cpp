@@ -107,15 +107,9 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
       findings_->setFindings(sweep_->findings());
     findings_->selectMeasure(sweep_->plots()->highlighted());
   });
-  auto focus = [this](const QString& id) {
-    sweep_->plots()->highlight(id.toStdString());
-    findings_->selectMeasure(id.toStdString());
-  };
+  auto focus = [this](const QString& id) { focusMeasure(id.toStdString()); };
   connect(measures_, &MeasuresPanel::measureFocused, this, focus);
-  connect(findings_, &FindingsPanel::measureFocused, this, [this](const QString& id) {
-    sweep_->plots()->highlight(id.toStdString());
-    if (!id.isEmpty()) measures_->focusMeasure(id.toStdString());
-  });
+  connect(findings_, &FindingsPanel::measureFocused, this, focus);
 
   restoreLayout();
   updateTitle();
@@ -298,6 +292,14 @@ void MainWindow::setSession(const Session& s, const QString& path) {
   if (options_.autoSweep && sweep_->runButton()->isEnabled()) sweep_->run();
 }
 
+// One measure picked out in every pane (none: id empty). The panes' own selection changes
+// come back here; selecting what is already selected emits nothing, so this settles.
+void MainWindow::focusMeasure(const std::string& id) {
+  sweep_->plots()->highlight(id);
+  findings_->selectMeasure(id);
+  if (!id.empty()) measures_->focusMeasure(id);
+}
+
 nlohmann::json MainWindow::viewOptions() const {
   nlohmann::json v = field_->viewOptions();
   v["theta"] = theta_ ? nlohmann::json(*theta_) : nlohmann::json();
@@ -311,10 +313,7 @@ void MainWindow::applyViewOptions(const nlohmann::json& v) {
   if (!v.is_object()) return;
   if (v.contains("normalise") && v["normalise"].is_boolean()) sweep_->setNormalised(v["normalise"].get<bool>());
   if (v.contains("highlight") && v["highlight"].is_string()) {
-    const std::string id = v["highlight"].get<std::string>();
-    sweep_->plots()->highlight(id);
-    findings_->selectMeasure(id);
-    if (!id.empty()) measures_->focusMeasure(id);
+    focusMeasure(v["highlight"].get<std::string>());
   }
   // The θ cursor last: it moves A on the Field.
   if (v.contains("theta") && v["theta"].is_number()) setTheta(v["theta"].get<double>());

@@ -93,6 +93,7 @@ class MainWindow : public QMainWindow {
   void submitLive();
   void onLiveUpdate(const LiveUpdate& u);
   void checkIdle();
+  void focusMeasure(const std::string& id);
   void reportError(const QString& title, const QString& text);
   void status(const QString& text);
   bool confirmDiscard();

@@ -9,7 +9,14 @@
 #include <QSettings>
 #include <QSlider>
 
+#include <QTableWidget>
+#include <QTreeWidget>
+
+#include "findings_panel.h"
 #include "getting_started.h"
+#include "measures_panel.h"
+#include "sweep_panel.h"
+#include "sweep_plots.h"
 #include "scenario/demo_scenario.h"
 #include "ui_test_support.h"
 
@@ -59,6 +66,34 @@ TEST(WindowHabitsTest, GettingStartedShowsOnceAndNeverInScreenshots) {
   EXPECT_FALSE(guideShows(true));   // a screenshot does not count as the first run
   EXPECT_TRUE(guideShows(false));   // the first real run shows it
   EXPECT_FALSE(guideShows(false));  // and never again
+}
+
+// [D] One measure is picked out in every pane: choosing it in the Measures tree highlights
+// its curve and selects its finding; choosing another finding moves the tree and the curve.
+TEST(WindowHabitsTest, AMeasureChosenAnywhereIsChosenEverywhere) {
+  auto w = makeWindow(demoSession());
+  w->sweep()->run();
+  ASSERT_TRUE(waitIdle(*w));
+  ASSERT_GT(w->findings()->table()->rowCount(), 1);
+  auto findingOf = [&] {
+    const auto rows = w->findings()->table()->selectionModel()->selectedRows();
+    return rows.isEmpty() ? std::string() : w->findings()->table()->item(rows.first().row(), 0)->data(Qt::UserRole).toString().toStdString();
+  };
+  QTreeWidget* tree = w->measures()->tree();
+  auto treeOf = [&] { return tree->currentItem() ? tree->currentItem()->data(0, Qt::UserRole + 1).toString().toStdString() : std::string(); };
+
+  tree->setCurrentItem(tree->topLevelItem(1));
+  const std::string first = treeOf();
+  ASSERT_FALSE(first.empty());
+  EXPECT_EQ(w->sweep()->plots()->highlighted(), first);
+  EXPECT_EQ(findingOf(), first);
+
+  const int other = w->findings()->table()->item(0, 0)->data(Qt::UserRole).toString().toStdString() == first ? 1 : 0;
+  w->findings()->table()->selectRow(other);
+  const std::string second = findingOf();
+  EXPECT_NE(second, first);
+  EXPECT_EQ(w->sweep()->plots()->highlighted(), second);
+  EXPECT_EQ(treeOf(), second);
 }
 
 TEST(WindowHabitsTest, TitleMarksUnsavedChanges) {
