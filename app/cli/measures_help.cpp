@@ -9,16 +9,17 @@ namespace barrow::cli {
 
 std::string measuresHelp() {
   std::string out = "Measures (id, name, formula; then their --set parameters: key = default, valid values, unit: meaning).\n"
-                    "Parameters of a shared group (density.*) are listed once, with the first measure using them.\n";
-  std::set<std::string> listed;
+                    "Parameters shared by several measures (e.g. density.*) are listed once, with the first measure using them.\n";
+  std::set<std::string> listed;  // parameter keys already shown
   for (const Measure* m : MeasureRegistry::instance().all()) {
     out += "\n  " + m->id() + std::string(m->id().size() < 10 ? 10 - m->id().size() : 1, ' ') + m->displayName() +
            (m->cheap() ? "" : "  (slow: updates after the others in the GUI)") + "\n";
     out += "            " + m->formula() + "\n";
+    std::set<std::string> pointed;  // groups of this measure already shown above
     for (const ParamSpec& p : m->params()) {
       if (!listed.insert(p.key).second) {
-        if (p.key.rfind("density.", 0) == 0 && listed.insert("density-note:" + m->id()).second)
-          out += "            density.* as above\n";
+        const std::string group = p.key.substr(0, p.key.find('.'));
+        if (pointed.insert(group).second) out += "            " + group + ".* as above\n";
         continue;
       }
       out += "            " + p.key + " = " + p.defaultValue + ", valid " + rangeShort(p);

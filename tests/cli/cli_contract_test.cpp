@@ -75,7 +75,7 @@ TEST(CliContractTest, BadSetParameterExitsTwo) {
   EXPECT_NE(err.find("unknown measure 'nosuch'"), std::string::npos) << err;
 }
 
-// Text output (common practice for a command-line table): one line per measure with id, value,
+// [CP] Text output as command-line tables usually are: one line per measure with id, value,
 // status and time, then its details as indented key=value lines — readable, not raw JSON.
 TEST(CliContractTest, MeasureTextOutputIsOneRowPerMeasureWithIndentedDetails) {
   const std::string a = test::samplesDir() + "/ring_vs_blob/a.csv";
@@ -95,7 +95,8 @@ TEST(CliContractTest, MeasureTextOutputIsOneRowPerMeasureWithIndentedDetails) {
   for (const auto& d : details) EXPECT_LE(d.size(), 200u) << d;
 }
 
-// The issue asks for each measure's one-line formula in --help; checked against the registry.
+// [D] Every measure's id, one-line formula and parameters (key = default) in --help, read from
+// the registry; one literal line pins the "valid" notation of a number-or-word setting.
 TEST(CliContractTest, MeasureHelpListsEveryMeasureWithFormulaAndParameters) {
   std::string out, err;
   ASSERT_EQ(cli("measure --help", &out, &err), 0) << err;

@@ -23,6 +23,7 @@ using test::makeWindow;
 using test::sameCloud;
 using test::waitIdle;
 
+// [D] save → open is a round trip: every part the session holds comes back unchanged.
 TEST(SessionFileTest, SavedSessionReopensWithSameCloudsSettingsAndView) {
   auto w = makeWindow(demoSession());
   SessionDocument* doc = w->document();
