@@ -1,5 +1,9 @@
 #include "cloud_layer.h"
 
+#include <cmath>
+
+#include "cloud/cloud.h"
+
 #include <algorithm>
 #include <cmath>
 
@@ -13,9 +17,9 @@ CloudLayer::CloudLayer(QCPAxis* keyAxis, QCPAxis* valueAxis)
 
 void CloudLayer::setData(const Eigen::MatrixX2d& points, const Eigen::VectorXd& weights) {
   points_ = points;
-  const double total = weights.size() ? weights.sum() : 0.0;
-  share_ = total > 0 ? Eigen::VectorXd(weights * (double(weights.size()) / total))
-                     : Eigen::VectorXd::Ones(points.rows());
+  const bool massive = weights.size() > 0 && weights.maxCoeff() > 0 && std::isfinite(weights.maxCoeff());
+  share_ = massive ? Eigen::VectorXd(normalizeWeights(weights) * double(weights.size()))
+                   : Eigen::VectorXd::Ones(points.rows());
   if (Eigen::Index(selected_.size()) != points.rows()) selected_.assign(std::size_t(points.rows()), false);
   if (highlighted_ >= points.rows()) highlighted_ = -1;
 }

@@ -272,14 +272,14 @@ QString FieldView::readout() const { return readout_->text(); }
 QString FieldView::describePoint(Which w, int index) const {
   const Cloud& c = w == Which::A ? a_ : b_;
   if (index < 0 || index >= c.size()) return {};
-  const double total = c.weights.sum();
+  const double share = c.weights.maxCoeff() > 0 ? normalizeWeights(c.weights)(index) : 0.0;
   const QString side = w == Which::A ? "A" : "B";
   QString s = tr("%1 #%2 at (%3, %4), mass %5")
                   .arg(side)
                   .arg(index + 1)
                   .arg(c.points(index, 0), 0, 'g', 4)
                   .arg(c.points(index, 1), 0, 'g', 4)
-                  .arg(total > 0 ? c.weights(index) / total : 0.0, 0, 'g', 3);
+                  .arg(share, 0, 'g', 3);
   if (exact_->segmentCount() == 0) return s;
   const auto entries = exact_->entriesOf(w == Which::A, index);
   if (entries.empty()) return s + tr(" — no mass under the plan");

@@ -17,7 +17,8 @@ FindingsPanel::FindingsPanel(QWidget* parent) : QWidget(parent), table_(new QTab
   table_->setColumnCount(3);
   table_->setHorizontalHeaderLabels({tr("Measure"), tr("Verdict"), tr("In words")});
   table_->horizontalHeaderItem(0)->setToolTip(tr("Click a row to highlight the measure on the plots and in the table"));
-  table_->horizontalHeaderItem(1)->setToolTip(tr("continuous, or the number of jumps found (confirmed by refinement); "
+  table_->horizontalHeaderItem(1)->setToolTip(tr("continuous, the number of jumps found (confirmed by refinement), or unresolved "
+                                                 "(a steep step the refinement budget could not settle); "
                                                  "flat: stretches with no gradient"));
   table_->horizontalHeaderItem(2)->setToolTip(tr("The finding in plain words, with the Lipschitz estimate"));
   table_->verticalHeader()->setVisible(false);
@@ -61,7 +62,10 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
     name->setData(Qt::UserRole, QString::fromStdString(f.id));
     name->setIcon(measureIcon(f.id));
     if (m) name->setToolTip(QString::fromStdString(m->displayName()));
-    QString verdict = f.continuous ? tr("continuous") : tr("%n jump(s)", "", int(f.jumps.size()));
+    QString verdict = !f.jumps.empty()       ? tr("%n jump(s)", "", int(f.jumps.size()))
+                      : !f.unresolved.empty() ? tr("unresolved")
+                                              : tr("continuous");
+    if (!f.jumps.empty() && !f.unresolved.empty()) verdict += tr(", unresolved");
     if (!f.flat.empty()) verdict += tr(", flat");
     auto* v = new QTableWidgetItem(verdict);
     v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
@@ -73,6 +77,25 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
     table_->setItem(r, 2, words);
   }
   table_->resizeRowsToContents();
+  stale_ = false;
+}
+
+void FindingsPanel::setStale(bool stale) {
+  if (stale == stale_ || table_->rowCount() == 0) return;
+  stale_ = stale;
+  // Greyed, with the reason in every row's tooltip: these verdicts belong to other clouds.
+  for (int r = 0; r < table_->rowCount(); ++r)
+    for (int c = 0; c < table_->columnCount(); ++c)
+      if (QTableWidgetItem* item = table_->item(r, c)) {
+        item->setData(Qt::UserRole + 1, stale);
+        QFont f = item->font();
+        f.setItalic(stale);
+        item->setFont(f);
+        item->setForeground(stale ? QColor(130, 130, 130) : QColor(Qt::black));
+        if (c == 2)
+          item->setToolTip(stale ? tr("Out of date: the clouds or settings changed since this sweep. ") + item->text()
+                                 : item->text());
+      }
 }
 
 void FindingsPanel::selectMeasure(const std::string& id) {

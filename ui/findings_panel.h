@@ -20,12 +20,16 @@ class FindingsPanel : public QWidget {
   void clear(const QString& hint);
   QTableWidget* table() const { return table_; }
   void selectMeasure(const std::string& id);
+  /// Marks the rows as belonging to clouds or settings that have changed since (greyed).
+  void setStale(bool stale);
+  bool stale() const { return stale_; }
 
  signals:
   void measureFocused(const QString& id);
 
  private:
   QTableWidget* table_;
+  bool stale_ = false;
 };
 
 }  // namespace barrow::ui

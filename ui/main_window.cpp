@@ -98,6 +98,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   connect(sweep_, &SweepPanel::message, this, &MainWindow::status);
   connect(sweep_, &SweepPanel::thetaChanged, this, &MainWindow::setTheta);
   connect(sweep_, &SweepPanel::runningChanged, this, &MainWindow::checkIdle);
+  connect(sweep_, &SweepPanel::staleChanged, findings_, &FindingsPanel::setStale);
   connect(sweep_, &SweepPanel::outcomeReady, this, [this] {
     if (!sweep_->error().empty())
       findings_->clear(tr("The sweep failed: %1").arg(QString::fromStdString(sweep_->error())));
@@ -320,14 +321,53 @@ void MainWindow::applyViewOptions(const nlohmann::json& v) {
 }
 
 QString MainWindow::openFile(const QString& path) {
-  const bool session = SessionFiles::isSessionFile(path);
+  // A single cloud file replaces one side: ask which, as a drop does.
+  if (!SessionFiles::isSessionFile(path)) return importAsked(path);
   const QString e = files_->openSession(path);
   if (!e.isEmpty()) {
     reportError(tr("Cannot open"), e);
     return e;
   }
-  if (session) setSession(doc_->session(), path);
-  else status(tr("Opened %1 as A").arg(QFileInfo(path).fileName()));
+  setSession(doc_->session(), path);
+  return {};
+}
+
+QString MainWindow::openPair(const QString& pathA, const QString& pathB) {
+  for (const auto& [path, side] : {std::pair{pathA, Which::A}, std::pair{pathB, Which::B}}) {
+    const QString e = files_->importCloud(path, side);
+    if (!e.isEmpty()) {
+      reportError(tr("Cannot open"), e);
+      return e;
+    }
+  }
+  field_->view()->fitToData();
+  status(tr("Opened %1 as A and %2 as B").arg(QFileInfo(pathA).fileName(), QFileInfo(pathB).fileName()));
+  return {};
+}
+
+std::optional<Which> MainWindow::askSide(const QString& path) {
+  if (dropChooser_) return dropChooser_(path);
+  QMessageBox box(QMessageBox::Question, tr("Import cloud"),
+                  tr("Use %1 as cloud A or as cloud B?").arg(QFileInfo(path).fileName()), QMessageBox::Cancel, this);
+  QPushButton* a = box.addButton(tr("As A"), QMessageBox::AcceptRole);
+  QPushButton* b = box.addButton(tr("As B"), QMessageBox::AcceptRole);
+  box.exec();
+  if (box.clickedButton() == a) return Which::A;
+  if (box.clickedButton() == b) return Which::B;
+  return std::nullopt;
+}
+
+QString MainWindow::importAsked(const QString& path) {
+  const std::optional<Which> target = askSide(path);
+  if (!target) return tr("cancelled");
+  const QString e = files_->importCloud(path, *target);
+  if (!e.isEmpty()) {
+    reportError(tr("Cannot import"), e);
+    return e;
+  }
+  files_->addRecent(path);
+  field_->view()->fitToData();
+  status(tr("Imported %1 as %2").arg(QFileInfo(path).fileName(), *target == Which::A ? "A" : "B"));
   return {};
 }
 
@@ -343,23 +383,7 @@ QString MainWindow::dropFile(const QString& path) {
     if (!confirmDiscard()) return tr("cancelled");
     return openFile(path);
   }
-  std::optional<Which> target;
-  if (dropChooser_) {
-    target = dropChooser_(path);
-  } else {
-    QMessageBox box(QMessageBox::Question, tr("Import cloud"),
-                    tr("Use %1 as cloud A or as cloud B?").arg(QFileInfo(path).fileName()), QMessageBox::Cancel, this);
-    QPushButton* a = box.addButton(tr("As A"), QMessageBox::AcceptRole);
-    QPushButton* b = box.addButton(tr("As B"), QMessageBox::AcceptRole);
-    box.exec();
-    if (box.clickedButton() == a) target = Which::A;
-    else if (box.clickedButton() == b) target = Which::B;
-  }
-  if (!target) return tr("cancelled");
-  const QString e = files_->importCloud(path, *target);
-  if (!e.isEmpty()) reportError(tr("Cannot import"), e);
-  else status(tr("Imported %1 as %2").arg(QFileInfo(path).fileName(), *target == Which::A ? "A" : "B"));
-  return e;
+  return importAsked(path);
 }
 
 void MainWindow::setTheta(std::optional<double> theta) {
@@ -390,7 +414,7 @@ void MainWindow::submitLive() {
     FamilyView f;
     f.settings = s.sweep;
     f.theta = theta_;
-    f.reference = s.sweep.reference.value_or(s.sweep.from);
+    f.reference = s.sweep.referenceTheta();
     req.family = f;
   }
   measures_->markUpdating();

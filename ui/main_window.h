@@ -44,7 +44,10 @@ class MainWindow : public QMainWindow {
   SessionDocument* document() const { return doc_; }
 
   /// Opens a session or a cloud file; returns the error text (also reported), empty on success.
+  /// A session replaces everything; a cloud file asks which side it replaces (as a drop).
   QString openFile(const QString& path);
+  /// Two cloud files as A and B (barrow --a A --b B).
+  QString openPair(const QString& pathA, const QString& pathB);
   QString saveTo(const QString& path);
   /// Handles a dropped file as the window would (asks A or B for clouds via the chooser).
   QString dropFile(const QString& path);
@@ -86,6 +89,8 @@ class MainWindow : public QMainWindow {
   void dropEvent(QDropEvent* e) override;
 
  private:
+  std::optional<Which> askSide(const QString& path);
+  QString importAsked(const QString& path);
   void buildDocks();
   void buildMenus();
   void rebuildRecentMenu();

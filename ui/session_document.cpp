@@ -4,12 +4,14 @@
 
 namespace barrow::ui {
 
-namespace {
-
-bool sameCloud(const Cloud& x, const Cloud& y) {
+bool sessionCloudsEqual(const Cloud& x, const Cloud& y) {
   return x.name == y.name && x.points.rows() == y.points.rows() &&
          x.weights.size() == y.weights.size() && x.points == y.points && x.weights == y.weights;
 }
+
+namespace {
+
+bool sameCloud(const Cloud& x, const Cloud& y) { return sessionCloudsEqual(x, y); }
 
 bool sameSweep(const SweepSettings& x, const SweepSettings& y) {
   return x.family == y.family && x.direction == y.direction && x.center == y.center &&

@@ -13,6 +13,9 @@ namespace barrow::ui {
 
 enum class Which { A, B };
 
+/// Same name, points and weights (sizes checked first).
+bool sessionCloudsEqual(const Cloud& x, const Cloud& y);
+
 class SessionDocument : public QObject {
   Q_OBJECT
  public:

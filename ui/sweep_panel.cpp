@@ -167,9 +167,8 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
     if (s.validate()) {
       s.from = lo;
       s.to = hi;
-      s.reference.reset();
     }
-    if (s.validate()) s.reference = lo;
+    s.reference.reset();  // the new family's identity (SweepSettings::referenceTheta)
     doc_->setSweep(s, tr("Sweep family: %1").arg(f));
   });
   for (QDoubleSpinBox* s : {dirX_, dirY_, centerX_, centerY_, from_, to_, reference_})
@@ -221,14 +220,35 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
   connect(plots_, &SweepPlots::thetaChanged, this, &SweepPanel::thetaChanged);
   connect(doc_, &SessionDocument::sweepChanged, this, [this] {
     loadFromSession();
-    plots_->setStale(true);
+    updateStale();
   });
-  connect(doc_, &SessionDocument::cloudsChanged, this, [this] {
-    if (!doc_->previewing()) plots_->setStale(true);
-  });
-  connect(doc_, &SessionDocument::paramsChanged, this, [this] { plots_->setStale(true); });
-  connect(doc_, &SessionDocument::selectionChanged, this, [this] { plots_->setStale(true); });
+  // Every change of the session, a drag's preview included, is compared with what the shown
+  // curves were computed from: one notion of "current" for the plots and the findings.
+  connect(doc_, &SessionDocument::cloudsChanged, this, &SweepPanel::updateStale);
+  connect(doc_, &SessionDocument::paramsChanged, this, &SweepPanel::updateStale);
+  connect(doc_, &SessionDocument::selectionChanged, this, &SweepPanel::updateStale);
   loadFromSession();
+}
+
+bool SweepPanel::resultsCurrent() const {
+  if (!hasRun_) return true;  // nothing shown yet, nothing out of date
+  const Session& s = doc_->session();
+  SweepSettings now = s.sweep;
+  now.measures = measureIds();
+  const SweepSettings& then = runSettings_;
+  return sessionCloudsEqual(s.a, runA_) && sessionCloudsEqual(s.b, runB_) &&
+         s.params.values() == runParams_.values() && now.family == then.family && now.direction == then.direction &&
+         now.center == then.center && now.from == then.from && now.to == then.to && now.steps == then.steps &&
+         now.referenceTheta() == then.referenceTheta() && now.measures == then.measures;
+}
+
+void SweepPanel::updateStale() {
+  const bool stale = !resultsCurrent();
+  plots_->setStale(stale);
+  if (stale != stale_) {
+    stale_ = stale;
+    emit staleChanged(stale);
+  }
 }
 
 void SweepPanel::loadFromSession() {
@@ -245,11 +265,11 @@ void SweepPanel::loadFromSession() {
   from_->setValue(s.from);
   to_->setValue(s.to);
   steps_->setValue(s.steps);
-  reference_->setValue(s.reference.value_or(s.from));
+  reference_->setValue(s.referenceTheta());
   updateFamilyControls();
   plots_->setAxisLabel(thetaLabel(s));
   plots_->setRange(s.from, s.to);
-  plots_->setReference(s.reference.value_or(s.from));
+  plots_->setReference(s.referenceTheta());
   loading_ = false;
 }
 
@@ -271,7 +291,9 @@ void SweepPanel::commit() {
   s.from = from_->value();
   s.to = to_->value();
   s.steps = steps_->value();
-  s.reference = reference_->value();
+  // The family's identity is the default θ₀ (as in barrow-cli): only another value is kept.
+  if (reference_->value() == identityTheta(s.family)) s.reference.reset();
+  else s.reference = reference_->value();
   if (auto e = s.validate()) {
     emit message(tr("Sweep settings not changed: %1").arg(QString::fromStdString(*e)));
     loadFromSession();  // show what is in force
@@ -311,6 +333,9 @@ void SweepPanel::run() {
   runA_ = doc_->session().a;
   runB_ = doc_->session().b;
   runParams_ = doc_->session().params;
+  hasRun_ = true;
+  stale_ = false;
+  emit staleChanged(false);
   parts_.clear();
   error_.clear();
   cancelled_ = false;

@@ -40,6 +40,8 @@ class SweepPanel : public QWidget {
   /// Why the last run produced nothing, or "" (also "" while running).
   const std::string& error() const { return error_; }
   bool cancelled() const { return cancelled_; }
+  /// Whether the shown curves and findings were computed from the session as it is now.
+  bool resultsCurrent() const;
   /// The sweep as CSV: theta,<id>,...,d_<id>,... (inf for ∞, empty where failed). The
   /// passes' θ grids are merged; a measure has no value at a θ that refinement added in the
   /// other pass, and its cell there is empty.
@@ -50,6 +52,7 @@ class SweepPanel : public QWidget {
   QPushButton* cancelButton() const { return cancelButton_; }
 
  signals:
+  void staleChanged(bool stale);
   void outcomeReady();
   void runningChanged(bool running);
   void thetaChanged(std::optional<double> theta);
@@ -90,6 +93,9 @@ class SweepPanel : public QWidget {
   ParamSet runParams_;
   std::string error_;
   bool cancelled_ = false;
+  bool hasRun_ = false;
+  bool stale_ = false;
+  void updateStale();
   bool active_ = false;
   bool loading_ = false;
 };

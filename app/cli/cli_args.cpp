@@ -1,6 +1,7 @@
 #include "cli/cli_args.h"
 
 #include <algorithm>
+#include <cmath>
 #include <sstream>
 
 #include "measures/params.h"
@@ -32,7 +33,8 @@ CliArgs::CliArgs(const std::string& command, const std::vector<std::string>& arg
       else if (k + 1 < args.size()) v = args[++k];
       else throw UsageError{"option --" + a + " needs a value"};
       if (a == "set") sets_.push_back(v);
-      else values_[a] = v;
+      else if (!values_.emplace(a, v).second)
+        throw UsageError{"option --" + a + " is given twice ('" + values_[a] + "' and '" + v + "'): give it once"};
     } else if (contains(flags, a)) {
       if (inlineValue) throw UsageError{"option --" + a + " takes no value"};
       flags_[a] = true;
@@ -58,7 +60,7 @@ double CliArgs::number(const std::string& name, double fallback) const {
   const auto v = value(name);
   if (!v) return fallback;
   const auto d = parseNumber(*v);
-  if (!d) throw UsageError{"--" + name + ": '" + *v + "' is not a number"};
+  if (!d) throw UsageError{"--" + name + ": '" + *v + "' " + notNumberReason(*v)};
   return *d;
 }
 
@@ -66,7 +68,9 @@ int CliArgs::integer(const std::string& name, int fallback) const {
   const auto v = value(name);
   if (!v) return fallback;
   const auto d = parseNumber(*v);
-  if (!d || *d != double(int(*d))) throw UsageError{"--" + name + ": '" + *v + "' is not a whole number"};
+  if (!d) throw UsageError{"--" + name + ": '" + *v + "' " + notNumberReason(*v)};
+  if (!(std::abs(*d) < 2147483647.0) || *d != std::floor(*d))
+    throw UsageError{"--" + name + ": '" + *v + "' is not a whole number in the range of an int"};
   return int(*d);
 }
 

@@ -1,9 +1,14 @@
 #include "cli/cli_common.h"
 
+#include <unistd.h>
+
 #include <algorithm>
+#include <cerrno>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
+#include <filesystem>
 
 #include "io/cloud_file.h"
 #include "measures/registry.h"
@@ -63,6 +68,19 @@ std::string formatNumber(double v) {
     if (std::strtod(buf, nullptr) == v) break;
   }
   return buf;
+}
+
+void checkWritable(const std::string& path, const std::string& option) {
+  if (path == "-") return;
+  namespace fs = std::filesystem;
+  std::error_code ec;
+  if (path.empty()) throw InputError{"--" + option + ": the file name is empty"};
+  if (fs::is_directory(path, ec)) throw InputError{"--" + option + " " + path + ": is a directory, not a file"};
+  const fs::path parent = fs::path(path).parent_path().empty() ? fs::path(".") : fs::path(path).parent_path();
+  if (!fs::is_directory(parent, ec))
+    throw InputError{"--" + option + " " + path + ": the folder " + parent.string() + " does not exist"};
+  if (::access(parent.c_str(), W_OK) != 0 || (fs::exists(path, ec) && ::access(path.c_str(), W_OK) != 0))
+    throw InputError{"--" + option + " " + path + ": cannot write there (" + std::strerror(errno) + ")"};
 }
 
 }  // namespace barrow::cli

@@ -35,6 +35,11 @@ std::vector<const Measure*> selectMeasures(const CliArgs& args);
 /// Every --set, checked against the known parameter keys and their ranges.
 ParamSet parseSets(const CliArgs& args);
 
+/// Fails (InputError) unless `path` can be written: its folder exists and is writable, and it
+/// is not itself a folder. Called before long work so a typo does not waste it. "-" (stdout)
+/// passes.
+void checkWritable(const std::string& path, const std::string& option);
+
 /// "0.42", "inf", "nan" — shortest text that reads back to the same double.
 std::string formatNumber(double v);
 

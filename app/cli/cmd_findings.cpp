@@ -27,6 +27,7 @@ int runFindings(const std::vector<std::string>& argv) {
     r = std::move(*loaded.value);
   } else {
     if (!args.has("a") && !args.has("b")) throw UsageError{"'findings' needs --sweep FILE or the sweep options (--a, --b, --family, ...)"};
+    if (args.has("out")) checkWritable(*args.value("out"), "out");
     r = sweepFromArgs(args);
     if (args.has("out"))
       if (auto e = writeSweepCsv(*args.value("out"), r)) throw InputError{*e};
@@ -36,7 +37,10 @@ int runFindings(const std::vector<std::string>& argv) {
     std::cout << findingsToJson(findings).dump() << "\n";
   } else {
     for (const auto& f : findings) std::printf("%s\n", f.summary.c_str());
-    if (!args.has("sweep")) printSweepNotes(r, stdout);
+    if (!args.has("sweep")) {
+      printSweepFrame(r, stdout);
+      printSweepNotes(r, stdout);
+    }
   }
   return kExitOk;
 }

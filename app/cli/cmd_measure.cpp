@@ -20,8 +20,10 @@ int runMeasure(const std::vector<std::string>& argv) {
   const auto measures = selectMeasures(args);
 
   nlohmann::json out = {{"measures", nlohmann::json::array()}};
+  std::vector<std::string> unusable;  // "id: reason" for measures the input cannot feed
   for (const Measure* m : measures) {
     const Result r = evaluateMeasure(*m, a, b, req);
+    if (r.status == Status::InvalidInput) unusable.push_back(m->id() + ": " + r.message);
     nlohmann::json row = {{"id", m->id()},
                           {"name", m->displayName()},
                           {"value", std::isfinite(r.value) ? nlohmann::json(r.value) : nlohmann::json()},
@@ -39,6 +41,15 @@ int runMeasure(const std::vector<std::string>& argv) {
     }
   }
   if (args.flag("json")) std::cout << out.dump() << "\n";
+  if (!unusable.empty()) {
+    // The values that could be computed are printed above; the exit code says the input did
+    // not suit every requested measure, and stderr says which and why.
+    std::string line = "the input cannot be used for " + std::to_string(unusable.size()) + " of " +
+                       std::to_string(measures.size()) + " measures: ";
+    for (std::size_t k = 0; k < unusable.size(); ++k) line += (k ? "; " : "") + unusable[k];
+    std::fprintf(stderr, "barrow-cli: %s\n", line.c_str());
+    return kExitBadInput;
+  }
   return kExitOk;
 }
 

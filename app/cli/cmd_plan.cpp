@@ -1,4 +1,4 @@
-// barrow-cli plan --a A.csv --b B.csv [--cost w1|w2] --out plan.csv
+// barrow-cli plan --a A.csv --b B.csv [--cost w1|w2] --out plan.csv   (--out - : standard output)
 // Writes the exact optimal transport plan, one nonzero per line:
 //   i,j,mass,ax,ay,bx,by,cost
 // with i, j the 0-based data rows of A and B, mass under the normalised weights (summing to
@@ -20,6 +20,7 @@ int runPlan(const std::vector<std::string>& argv) {
   const std::string costName = args.value("cost").value_or("w1");
   if (costName != "w1" && costName != "w2") throw InputError{"--cost must be w1 or w2, not '" + costName + "'"};
   const std::string out = args.required("out");
+  checkWritable(out, "out");
   const Cloud a = loadCloud(args.required("a"));
   const Cloud b = loadCloud(args.required("b"));
 
@@ -39,8 +40,9 @@ int runPlan(const std::vector<std::string>& argv) {
            "," + formatNumber(ay) + "," + formatNumber(bx) + "," + formatNumber(by) + "," +
            formatNumber(cost(ax, ay, bx, by)) + "\n";
   }
-  if (auto e = atomicWriteFile(out, csv)) throw InputError{*e};
-  std::printf("%s = %s  nonzeros = %zu  marginal error = %.1e  (%.1f ms)  -> %s\n", costName.c_str(),
+  if (out == "-") std::fwrite(csv.data(), 1, csv.size(), stdout);
+  else if (auto e = atomicWriteFile(out, csv)) throw InputError{*e};
+  std::fprintf(out == "-" ? stderr : stdout, "%s = %s  nonzeros = %zu  marginal error = %.1e  (%.1f ms)  -> %s\n", costName.c_str(),
               formatNumber(r.value).c_str(), r.plan.size(), r.details.value("marginal_error", 0.0), r.seconds * 1e3,
               out.c_str());
   return kExitOk;

@@ -42,6 +42,13 @@ SweepRequest requestFromArgs(const CliArgs& args) {
   req.threads = args.integer("threads", 0);
   if (req.threads < 0) throw UsageError{"--threads: expected 0 (all cores) or a positive number"};
   req.refineJumps = !args.flag("no-refine");
+  req.maxRefinePoints = args.integer("refine-budget", 0);
+  if (req.maxRefinePoints < 0 || req.maxRefinePoints > kMaxRefinePoints)
+    throw UsageError{"--refine-budget: expected 0 (the default, max(64, steps)) to " + std::to_string(kMaxRefinePoints)};
+  req.thetaTolerance = args.number("resolution", 0.0);
+  if (!(req.thetaTolerance >= 0) || !std::isfinite(req.thetaTolerance) ||
+      (req.thetaTolerance > 0 && req.thetaTolerance > s.to - s.from))
+    throw UsageError{"--resolution: expected a θ width > 0 and below the range (0 = the default, 1e-5 × range)"};
   req.warmStart = !args.flag("no-warm-start");
   return req;
 }
@@ -50,7 +57,8 @@ SweepRequest requestFromArgs(const CliArgs& args) {
 
 const std::vector<std::string>& sweepOptionNames() {
   static const std::vector<std::string> names = {"a", "b", "family", "direction", "center", "from", "to",
-                                                 "steps", "reference", "measures", "threads"};
+                                                 "steps", "reference", "measures", "threads",
+                                                 "refine-budget", "resolution"};
   return names;
 }
 
@@ -82,6 +90,16 @@ SweepResult runSweepWithProgress(const Cloud& a, const Cloud& b, const SweepRequ
   return r;
 }
 
+void printSweepFrame(const SweepResult& r, std::FILE* to) {
+  const SweepSettings& s = r.settings;
+  std::fprintf(to, "  settings frozen at the reference θ0 = %s (%s)\n", formatNumber(r.referenceTheta).c_str(),
+               s.reference ? "set with --reference" : "the family's identity: A as given");
+  if (r.refineTolerance > 0)
+    std::fprintf(to, "  jumps confirmed to Δθ <= %s; refinement budget %d θ values, %d used%s\n",
+                 formatNumber(r.refineTolerance).c_str(), r.refineBudget, r.refinedPoints,
+                 r.refineBudgetHit ? " (ran out: some suspects stay unresolved; raise --refine-budget)" : "");
+}
+
 void printSweepNotes(const SweepResult& r, std::FILE* to) {
   for (const auto& s : r.series) {
     std::size_t failed = 0;
@@ -97,10 +115,12 @@ int runSweep(const std::vector<std::string>& argv) {
   valued.push_back("out");
   const CliArgs args("sweep", argv, valued, {"no-refine", "no-warm-start"});
   const std::string out = args.required("out");
+  checkWritable(out, "out");
   const SweepResult r = sweepFromArgs(args);
   if (auto e = writeSweepCsv(out, r)) throw InputError{*e};
   std::printf("wrote %s: %zu θ values (%d added near suspected jumps) × %zu measures in %.2f s on %d threads\n",
               out.c_str(), r.theta.size(), r.refinedPoints, r.series.size(), r.seconds, r.threads);
+  printSweepFrame(r, stdout);
   printSweepNotes(r, stdout);
   return kExitOk;
 }

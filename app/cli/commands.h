@@ -27,5 +27,9 @@ const std::vector<std::string>& sweepOptionNames();  // valued options that desc
 SweepResult sweepFromArgs(const CliArgs& args);       // loads the clouds, runs, throws on bad input
 SweepResult runSweepWithProgress(const Cloud& a, const Cloud& b, const SweepRequest& req);
 void printSweepNotes(const SweepResult& r, std::FILE* to);  // measures that failed somewhere
+void printSweepFrame(const SweepResult& r, std::FILE* to);  // reference θ0, resolution, budget
+
+/// The help of one command (sweep, findings, plan), or "" for commands without their own.
+std::string commandHelp(const std::string& command);
 
 }  // namespace barrow::cli

@@ -19,10 +19,10 @@ usage:
   barrow-cli sweep    --a A.csv --b B.csv --family shift|rotate|scale|interpolate|mix
                       [--direction dx,dy] [--from F --to T --steps N] [--measures ...] --out sweep.csv
                       [--center x,y] [--reference R] [--set key=value ...] [--threads N]
-                      [--no-refine] [--no-warm-start]
+                      [--refine-budget N] [--resolution H] [--no-refine] [--no-warm-start]
   barrow-cli findings --sweep sweep.csv  (or the sweep options)  [--json]
   barrow-cli demo     (writes a demo scenario and runs a sweep on it)  [--out DIR] [--json]
-  barrow-cli --help | --version
+  barrow-cli --help | --version | COMMAND --help
 
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
 Parameters: --set group.key=value, e.g. --set sinkhorn.epsilon=0.01 --set density.bin=0.25
@@ -49,7 +49,8 @@ int main(int argc, char** argv) {
   const std::vector<std::string> rest(argv + 2, argv + argc);
   for (const auto& a : rest)
     if (a == "--help" || a == "-h") {
-      std::fputs(kUsage, stdout);
+      const std::string own = commandHelp(cmd);
+      std::fputs(own.empty() ? kUsage : own.c_str(), stdout);
       if (cmd == "measure" || cmd == "sweep") std::fputs(("\n" + measuresHelp()).c_str(), stdout);
       return kExitOk;
     }

@@ -1,6 +1,8 @@
 // barrow: the desktop application.
 //   barrow                  opens the built-in demo scenario
-//   barrow FILE             opens a session (.json/.barrow) or a cloud file (CSV/.npy) as A
+//   barrow FILE             opens a session (.json/.barrow), or a cloud file (CSV/.npy) after
+//                           asking which side it replaces (as A in --screenshot mode)
+//   barrow --a A --b B      opens two cloud files as A and B
 //   barrow --screenshot out.png [--size WxH] [FILE]
 //                           renders the window once every pending computation (live
 //                           measures and the sweep) has finished, writes the PNG and exits
@@ -30,6 +32,10 @@ int main(int argc, char** argv) {
   parser.addOption(shot);
   parser.addOption(size);
   parser.addOption(timeout);
+  QCommandLineOption cloudA("a", "Cloud file (CSV/.npy) to open as A (with --b).", "file");
+  QCommandLineOption cloudB("b", "Cloud file (CSV/.npy) to open as B (with --a).", "file");
+  parser.addOption(cloudA);
+  parser.addOption(cloudB);
   parser.addPositionalArgument("file", "A session (.json) or a cloud (CSV/.npy) to open.");
   parser.process(app);
 
@@ -37,7 +43,21 @@ int main(int argc, char** argv) {
   options.screenshot = parser.isSet(shot);
   barrow::ui::MainWindow window(options);
   window.setSession(barrow::demoSession());
-  if (!parser.positionalArguments().isEmpty()) {
+  if (parser.isSet(cloudA) != parser.isSet(cloudB)) {
+    std::fprintf(stderr, "barrow: --a and --b go together (give both cloud files)\n");
+    return 2;
+  }
+  if (parser.isSet(cloudA) && !parser.positionalArguments().isEmpty()) {
+    std::fprintf(stderr, "barrow: give either a FILE or --a/--b, not both\n");
+    return 2;
+  }
+  if (parser.isSet(cloudA)) {
+    const QString e = window.openPair(parser.value(cloudA), parser.value(cloudB));
+    if (!e.isEmpty() && options.screenshot) {
+      std::fprintf(stderr, "barrow: %s\n", e.toLocal8Bit().constData());
+      return 2;
+    }
+  } else if (!parser.positionalArguments().isEmpty()) {
     const QString path = parser.positionalArguments().first();
     if (options.screenshot) {
       // No dialogs in batch mode: a bad file is an error exit.

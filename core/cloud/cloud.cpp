@@ -14,7 +14,17 @@ Cloud::Cloud(std::string n, Eigen::MatrixX2d pts)
 Cloud::Cloud(std::string n, Eigen::MatrixX2d pts, Eigen::VectorXd w)
     : name(std::move(n)), points(std::move(pts)), weights(std::move(w)) {}
 
-Eigen::VectorXd Cloud::normalizedWeights() const { return weights / weights.sum(); }
+Eigen::VectorXd normalizeWeights(const Eigen::VectorXd& w) {
+  // Divide by the largest weight first: the raw sum of finite weights can overflow (two rows
+  // of 1e308 sum to +inf), the scaled one is at most n.
+  if (w.size() == 0) return w;
+  const double top = w.maxCoeff();
+  if (!(top > 0) || !std::isfinite(top)) return w / w.sum();  // invalid clouds: no rescue
+  const Eigen::VectorXd scaled = w / top;
+  return scaled / scaled.sum();
+}
+
+Eigen::VectorXd Cloud::normalizedWeights() const { return normalizeWeights(weights); }
 
 Eigen::Vector2d Cloud::mean() const {
   return (points.transpose() * normalizedWeights());

@@ -25,7 +25,6 @@ struct Cloud {
   bool empty() const { return points.rows() == 0; }
   Eigen::Vector2d point(Eigen::Index i) const { return points.row(i).transpose(); }
 
-  double totalWeight() const { return weights.sum(); }
   /// Weights divided by their sum. Pre: validate() passed.
   Eigen::VectorXd normalizedWeights() const;
   /// Weighted mean under the normalised weights. Pre: validate() passed.
@@ -37,6 +36,10 @@ struct Cloud {
   /// (1-based, as a user counts rows) and what is wrong with it.
   std::optional<std::string> validate() const;
 };
+
+/// w / Σw computed without overflow (scaled by the largest weight first). Pre: w >= 0 with
+/// a finite positive maximum; otherwise the plain quotient (NaN/inf) is returned.
+Eigen::VectorXd normalizeWeights(const Eigen::VectorXd& w);
 
 /// Diameter of the union of two clouds (used to express settings relative to the data).
 double jointDiameter(const Cloud& a, const Cloud& b);

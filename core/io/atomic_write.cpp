@@ -6,6 +6,7 @@
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
+#include <filesystem>
 #include <fstream>
 #include <random>
 #include <sstream>
@@ -52,6 +53,12 @@ std::optional<std::string> atomicWriteFile(const std::string& path, const std::s
 }
 
 std::optional<std::string> readWholeFile(const std::string& path, std::string* error) {
+  // An ifstream opens a directory without complaint and then reads nothing: say what it is.
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) {
+    if (error) *error = "it is a directory, not a file";
+    return std::nullopt;
+  }
   std::ifstream in(path, std::ios::binary);
   if (!in) {
     if (error) *error = std::strerror(errno);

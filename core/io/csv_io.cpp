@@ -144,7 +144,7 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
       const auto num = parseNumber(f);
       const std::string col = std::string("column ") + std::to_string(order[role] + 1) + " (" +
                               kColumnNames[role] + ")";
-      if (!num) return fail(lineNo, col + ": '" + f + "' is not a number");
+      if (!num) return fail(lineNo, col + ": '" + f + "' " + notNumberReason(f));
       if (std::isnan(*num)) return fail(lineNo, col + ": value is NaN");
       if (std::isinf(*num)) return fail(lineNo, col + ": value is infinite");
       if (role == 2 && *num < 0) return fail(lineNo, col + ": weight " + f + " is negative");

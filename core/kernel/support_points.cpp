@@ -13,7 +13,7 @@ SupportPoints supportOf(const Cloud& c) {
     s.points.row(t) = c.points.row(s.rows[std::size_t(t)]);
     s.weights(t) = c.weights(s.rows[std::size_t(t)]);
   }
-  s.weights /= s.weights.sum();
+  s.weights = normalizeWeights(s.weights);
   return s;
 }
 

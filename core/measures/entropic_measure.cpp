@@ -3,6 +3,7 @@
 #include <cmath>
 #include <memory>
 #include <optional>
+#include <sstream>
 
 #include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
@@ -69,6 +70,19 @@ EntropicSettings readEntropicSettings(const std::string& group, const ParamSet& 
   if (params.has(group + ".p")) o.p = params.integer(group + ".p");
   if (params.has(group + ".max_iterations")) o.maxIterations = params.integer(group + ".max_iterations");
   if (params.has(group + ".tolerance")) o.tolerance = params.real(group + ".tolerance");
+  // The bounding box's diagonal, by hypot so that it is finite whenever the coordinates are.
+  const Eigen::RowVector2d lo = a.points.colwise().minCoeff().cwiseMin(b.points.colwise().minCoeff());
+  const Eigen::RowVector2d hi = a.points.colwise().maxCoeff().cwiseMax(b.points.colwise().maxCoeff());
+  const double diagonal = std::hypot(hi(0) - lo(0), hi(1) - lo(1));
+  s.costBound = std::pow(diagonal, o.p);
+  if (!std::isfinite(s.costBound)) {
+    std::ostringstream m;
+    m.precision(3);
+    m << group << ": the coordinates are too large for the cost |x - y|^" << o.p << " (clouds span about " << diagonal
+      << ", so costs overflow double precision); rescale the data";
+    s.error = m.str();
+    return s;
+  }
   s.diameter = jointDiameter(a, b);
   const std::string key = group + ".epsilon";
   s.automatic = !params.has(key) || params.isWord(key, "auto");
@@ -140,6 +154,8 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   r.iterations = sr.iterations;
   r.details = entropicDetails(s);
   addSolveDetails(r.details, "", sr);
+  // An estimate of the value's absolute accuracy: marginal error × the largest cost [CP].
+  r.details["value_accuracy"] = sr.marginalError * s.costBound;
   if (r.status == Status::Cancelled) return r;
 
   if (ctx.wantPlan) {

@@ -20,6 +20,7 @@ struct EntropicSettings {
   SinkhornOptions options;
   double diameter = 0.0;         // joint diameter D of A and B
   bool automatic = false;        // ε came from the "auto" rule (D/20)^p
+  double costBound = 0.0;        // (bounding-box diagonal)^p: no cost |x − y|^p exceeds it
   /// Reason the settings are unusable (e.g. "auto" on two identical single points).
   std::string error;
 };

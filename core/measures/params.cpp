@@ -36,6 +36,18 @@ std::optional<double> parseNumber(const std::string& text) {
   return v;
 }
 
+std::string notNumberReason(const std::string& text) {
+  std::string t = text;
+  t.erase(0, t.find_first_not_of(" \t"));
+  t.erase(t.find_last_not_of(" \t") + 1);
+  if (!t.empty() && t[0] == '+') t.erase(0, 1);
+  double v = 0;
+  const auto [end, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
+  if (ec == std::errc::result_out_of_range && end == t.data() + t.size())
+    return "is out of range (a double holds magnitudes from about 2.2e-308 to 1.8e308)";
+  return "is not a number";
+}
+
 namespace {
 
 bool isWordOf(const ParamSpec& spec, const std::string& v) {

@@ -73,5 +73,8 @@ class ParamSet {
 
 /// Number parsing that accepts the whole string only ("1.5" yes, "1.5x" no).
 std::optional<double> parseNumber(const std::string& text);
+/// Why `text` is not a number: "is out of range" for a well-formed number beyond the doubles
+/// (1e400), else "is not a number". Use for messages after parseNumber failed.
+std::string notNumberReason(const std::string& text);
 
 }  // namespace barrow

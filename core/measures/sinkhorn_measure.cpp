@@ -144,6 +144,8 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   addSolveDetails(r.details, "aa_", t.aa);
   addSolveDetails(r.details, "bb_", t.bb);
   r.details["marginal_error"] = std::max({t.ab.marginalError, t.aa.marginalError, t.bb.marginalError});
+  // Estimate of the absolute accuracy: each term's marginal error × the largest cost [CP].
+  r.details["value_accuracy"] = (t.ab.marginalError + 0.5 * t.aa.marginalError + 0.5 * t.bb.marginalError) * s.costBound;
 
   if (ctx.wantPlan) {
     const SinkhornOptions& o = s.options;

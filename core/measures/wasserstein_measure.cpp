@@ -2,11 +2,18 @@
 
 #include <algorithm>
 #include <climits>
+#include <cmath>
+#include <string>
 
 #include "transport/exact_cost.h"
 #include "transport/exact_ot.h"
 
 namespace barrow {
+
+namespace {
+constexpr double kMarginalTolerance = 1e-9;  // max |row/column sum − weight|; masses sum to 1
+constexpr double kGapTolerance = 1e-9;       // |cost − dual|, relative to the terms' size
+}  // namespace
 
 std::string WassersteinMeasure::displayName() const {
   return p_ == 1 ? "Wasserstein-1 (exact)" : "Wasserstein-2 (exact)";
@@ -34,6 +41,22 @@ Result WassersteinMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalCo
       r.message = s.message + "; the value is the cost of a feasible plan (an upper bound)";
       break;
     case ExactOtStatus::Optimal: r = Result::ok(s.value); break;
+  }
+  // The solver's own certificate decides whether "optimal" is believed: the plan's marginals
+  // and the duality gap must be at rounding level. Anything else (e.g. weights or costs that
+  // overflowed) is a failed value, never an ok one.
+  if (s.status == ExactOtStatus::Optimal) {
+    const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
+    const double scale = std::abs(s.cost) + wa.dot(s.u.cwiseAbs()) + wb.dot(s.v.cwiseAbs());
+    const bool certified = std::isfinite(s.value) && s.marginalError <= kMarginalTolerance &&
+                           std::isfinite(scale) && std::abs(s.dualGap) <= kGapTolerance * std::max(scale, 1e-300);
+    if (!certified) {
+      r.status = Status::NotConverged;
+      r.value = NAN;
+      r.message = "the exact solver's certificate failed (marginal error " + std::to_string(s.marginalError) +
+                  ", duality gap " + std::to_string(s.dualGap) +
+                  "): the value cannot be trusted; coordinates or weights may be too extreme for double precision";
+    }
   }
   r.iterations = int(std::min<long long>(s.pivots, INT_MAX));
   r.u = std::move(s.u);

@@ -91,10 +91,12 @@ bool growsAwayFromBest(const Curve& c, double slack, std::pair<double, double>* 
 
 }  // namespace
 
-Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, bool refined,
+Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, double resolution,
                        const ContinuityOptions& o) {
   Finding f;
   f.id = s.id;
+  f.resolution = resolution > 0 ? resolution : 0.0;
+  const bool refined = f.resolution > 0;
   Curve c{theta, s.value, s.slope};
   for (double v : s.value) {
     if (std::isnan(v)) continue;
@@ -108,6 +110,15 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, b
   facts.failed = s.value.size() - c.valid;
   facts.refined = refined;
   facts.failure = s.message;
+  if (c.valid > 0 && c.infinite == c.valid) {
+    f.continuous = true;
+    f.monotone = true;
+    f.lipschitz = NAN;
+    f.flat = {{theta.front(), theta.back()}};
+    facts.infiniteEverywhere = true;
+    f.summary = describeFinding(f, facts);
+    return f;
+  }
   if (c.valid == 0) {
     f.continuous = false;
     f.monotone = false;
@@ -116,15 +127,18 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, b
     return f;
   }
 
+  const JumpTest test{f.resolution, o.jumpSafety, std::isfinite(s.accuracy) ? s.accuracy : 0.0};
+  std::vector<StepVerdict> verdict(theta.size(), StepVerdict::Smooth);  // by left index
+  for (const JudgedStep& j : judgeSteps(theta, s.value, o.stepRule, test)) verdict[j.interval.left] = j.verdict;
   for (const StepInterval& st : classifySteps(theta, s.value, o.stepRule)) {
     const double width = theta[st.right] - theta[st.left];
-    if (st.jumpLike) {
-      f.jumps.push_back({0.5 * (theta[st.left] + theta[st.right]), st.step});
-    } else if (std::isfinite(st.step)) {
-      f.lipschitz = std::max(f.lipschitz, std::abs(st.step) / width);
-    }
+    const Jump here{0.5 * (theta[st.left] + theta[st.right]), st.step, width};
+    const StepVerdict v = st.jumpLike ? verdict[st.left] : StepVerdict::Smooth;
+    if (v == StepVerdict::Jump) f.jumps.push_back(here);
+    else if (v == StepVerdict::Unresolved) f.unresolved.push_back(here);
+    else if (std::isfinite(st.step)) f.lipschitz = std::max(f.lipschitz, std::abs(st.step) / width);
   }
-  f.continuous = f.jumps.empty();
+  f.continuous = f.jumps.empty() && f.unresolved.empty();
   f.flat = flatStretches(c, o);
   // Constant, or varying by less than `constantShare` of its size (a rotation of a symmetric
   // shape): no θ is better than another, and the relative thresholds above would only judge noise.
@@ -132,6 +146,7 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, b
   if (c.infinite == 0 && c.range <= o.constantShare * size) {
     f.flat = {{theta.front(), theta.back()}};
     f.jumps.clear();
+    f.unresolved.clear();
     f.continuous = true;
     f.monotone = true;
     facts.constant = true;
@@ -161,7 +176,7 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, b
 std::vector<Finding> findContinuity(const SweepResult& r, const ContinuityOptions& options) {
   std::vector<Finding> out;
   for (const SweepSeries& s : r.series)
-    out.push_back(findContinuity(r.theta, s, r.refineTolerance > 0, options));
+    out.push_back(findContinuity(r.theta, s, r.refineTolerance, options));
   return out;
 }
 

@@ -67,10 +67,16 @@ std::string describeFinding(const Finding& f, const FindingFacts& facts) {
     return f.id + " is constant at " + shortNumber(facts.lowest) +
            " over the whole sweep: it cannot tell the θ values apart and gives no gradient";
 
+  if (facts.infiniteEverywhere)
+    return f.id + " is +∞ at every θ of the sweep" +
+           (facts.failed > 0 ? " that did not fail" : std::string()) + ": it gives no gradient anywhere";
+
   std::string s = f.id;
-  if (f.jumps.empty()) {
+  if (f.jumps.empty() && f.unresolved.empty()) {
     s += " is continuous";
     if (!facts.refined) s += " on this grid";
+  } else if (f.jumps.empty()) {
+    s += " has no confirmed jump";
   } else {
     s += " jumps ";
     // The largest jumps first when there are many; the rest are counted.
@@ -85,7 +91,16 @@ std::string describeFinding(const Finding& f, const FindingFacts& facts) {
     for (std::size_t k = 0; k < shown; ++k)
       s += (k == 0 ? "" : k + 1 == shown && shown == f.jumps.size() ? " and " : ", ") + jumpText(listed[k]);
     if (f.jumps.size() > shown) s += ", plus " + std::to_string(f.jumps.size() - shown) + " smaller jumps";
-    s += facts.refined ? " (each confirmed by bisection)" : " (judged from the grid alone, without refinement)";
+    s += " (each confirmed by bisection to Δθ ≤ " + shortNumber(f.resolution) + ")";
+  }
+  if (!f.unresolved.empty()) {
+    s += "; unresolved at θ ≈ ";
+    const std::size_t shown = std::min<std::size_t>(f.unresolved.size(), 3);
+    for (std::size_t k = 0; k < shown; ++k) s += (k ? ", " : "") + shortNumber(f.unresolved[k].theta);
+    if (f.unresolved.size() > shown) s += " and " + std::to_string(f.unresolved.size() - shown) + " more";
+    s += facts.refined ? " (steep steps the refinement budget ran out before resolving to Δθ ≤ " +
+                             shortNumber(f.resolution) + ": jump or steep slope, not decided)"
+                       : " (steep steps on the grid; without refinement a jump cannot be told from a steep slope)";
   }
   const std::size_t flatShown = std::min<std::size_t>(facts.flat.size(), 2);
   for (std::size_t k = 0; k < flatShown; ++k) {
@@ -98,7 +113,7 @@ std::string describeFinding(const Finding& f, const FindingFacts& facts) {
          (facts.flat.size() - flatShown > 1 ? "es" : "");
   if (!facts.flat.empty()) s += ": no gradient there";
   if (std::isfinite(f.lipschitz))
-    s += "; slope at most " + shortNumber(f.lipschitz) + (f.jumps.empty() ? "" : " off the jumps");
+    s += "; slope at most " + shortNumber(f.lipschitz) + (f.jumps.empty() && f.unresolved.empty() ? "" : " off the jumps");
   if (std::isnan(facts.best.first)) s += "; it is +∞ at every θ that did not fail";
   else if (f.monotone) s += "; it grows with distance from " + bestText(facts);
   else s += "; it does not grow steadily away from " + bestText(facts);

@@ -21,8 +21,9 @@ struct FindingFacts {
   std::size_t samples = 0;
   std::size_t failed = 0;
   std::string failure;        // the first failure's reason
-  bool refined = false;       // jumps were confirmed by bisection
+  bool refined = false;       // suspects were bisected (Finding::resolution > 0)
   bool constant = false;      // one finite value at every θ
+  bool infiniteEverywhere = false;  // +∞ at every θ that did not fail
   double lowest = 0.0;        // smallest finite value
   double range = 0.0;         // largest finite value minus the smallest
   std::pair<double, double> best{0.0, 0.0};  // θ extent where it is reached (NaN: +∞ throughout)

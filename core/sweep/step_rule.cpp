@@ -15,6 +15,18 @@ double finiteRange(const std::vector<double>& value) {
   return hi >= lo ? hi - lo : 0.0;
 }
 
+namespace {
+
+// The noise floor of a step: a share of the curve's range, never below rounding of its size.
+double stepFloor(const std::vector<double>& value, const StepRule& rule) {
+  double maxAbs = 0.0;
+  for (double v : value)
+    if (std::isfinite(v)) maxAbs = std::max(maxAbs, std::abs(v));
+  return std::max(rule.floor * finiteRange(value), 1e-12 * std::max(1.0, maxAbs));
+}
+
+}  // namespace
+
 std::vector<StepInterval> classifySteps(const std::vector<double>& theta,
                                         const std::vector<double>& value, const StepRule& rule) {
   std::vector<StepInterval> out;
@@ -25,11 +37,8 @@ std::vector<StepInterval> classifySteps(const std::vector<double>& theta,
     prev = k;
   }
 
-  double maxAbs = 0.0;
-  for (double v : value)
-    if (std::isfinite(v)) maxAbs = std::max(maxAbs, std::abs(v));
   // The absolute part keeps rounding noise of a constant curve from counting as a step.
-  const double floor = std::max(rule.floor * finiteRange(value), 1e-12 * std::max(1.0, maxAbs));
+  const double floor = stepFloor(value, rule);
 
   // Secant slopes of the finite intervals; NaN marks an interval with an infinite end.
   std::vector<double> slope(out.size(), NAN);
@@ -59,6 +68,45 @@ std::vector<StepInterval> classifySteps(const std::vector<double>& theta,
     double median = *mid;
     if (near.size() % 2 == 0) median = 0.5 * (median + *std::max_element(near.begin(), mid));
     s.jumpLike = slope[k] > rule.factor * median;
+  }
+  return out;
+}
+
+std::vector<JudgedStep> judgeSteps(const std::vector<double>& theta, const std::vector<double>& value,
+                                   const StepRule& rule, const JumpTest& test) {
+  const std::vector<StepInterval> steps = classifySteps(theta, value, rule);
+  const double floor = std::max(stepFloor(value, rule), 2.0 * test.accuracy);
+  auto width = [&](const StepInterval& s) { return theta[s.right] - theta[s.left]; };
+  std::vector<JudgedStep> out;
+  for (std::size_t k = 0; k < steps.size(); ++k) {
+    const StepInterval& s = steps[k];
+    if (!s.jumpLike) continue;
+    JudgedStep j{s, StepVerdict::Unresolved};
+    // A relative slack so that a width computed as a difference of θ values still counts.
+    if (!(test.resolution > 0) || width(s) > test.resolution * (1 + 1e-9)) {
+      out.push_back(j);
+      continue;
+    }
+    if (!std::isfinite(s.step)) {
+      j.verdict = StepVerdict::Jump;
+      out.push_back(j);
+      continue;
+    }
+    if (!(std::abs(s.step) > floor)) {
+      j.verdict = StepVerdict::Smooth;
+      out.push_back(j);
+      continue;
+    }
+    double local = -1.0;  // largest neighbouring secant slope; < 0: no neighbour
+    int taken = 0;
+    for (std::size_t i = k; i-- > 0 && taken < rule.window;)
+      if (std::isfinite(steps[i].step)) local = std::max(local, std::abs(steps[i].step) / width(steps[i])), ++taken;
+    taken = 0;
+    for (std::size_t i = k + 1; i < steps.size() && taken < rule.window; ++i)
+      if (std::isfinite(steps[i].step)) local = std::max(local, std::abs(steps[i].step) / width(steps[i])), ++taken;
+    if (local >= 0)
+      j.verdict = std::abs(s.step) > test.safety * local * width(s) ? StepVerdict::Jump : StepVerdict::Smooth;
+    out.push_back(j);
   }
   return out;
 }

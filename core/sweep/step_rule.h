@@ -37,6 +37,39 @@ struct StepInterval {
 std::vector<StepInterval> classifySteps(const std::vector<double>& theta,
                                         const std::vector<double>& value, const StepRule& rule);
 
+/// The confirmation test a jump-like interval must pass, after refinement, to be reported as
+/// a jump (see judgeSteps).
+struct JumpTest {
+  double resolution = 0.0;  // θ width an interval must be bisected down to; <= 0: none was
+  double safety = 4.0;      // multiple of the local slope × width the step must exceed, > 1
+  double accuracy = 0.0;    // absolute accuracy of the values (the solver's own), >= 0
+};
+
+enum class StepVerdict {
+  Smooth,      // the change is explained by the local slope (or below the noise floor)
+  Jump,        // confirmed: resolved to the resolution and far above the local slope
+  Unresolved,  // jump-like, but not bisected down to the resolution (or no neighbours to judge)
+};
+
+struct JudgedStep {
+  StepInterval interval;
+  StepVerdict verdict = StepVerdict::Smooth;
+};
+
+/// The verdict on every interval classifySteps flags as jump-like. A finite step over an
+/// interval of width h is a Jump only when
+///   h <= resolution                                  (refinement reached the resolution),
+///   |ΔD| > max(floor, 2·accuracy)                      (above the noise floor), and
+///   |ΔD| > safety · L · h,  L = the largest secant slope of up to `window` finite intervals
+///                                 on each side (the local slope, from the well-resolved
+///                                 steps next to it),
+/// i.e. no slope seen around it could produce the change over h. A change to or from +∞ is a
+/// Jump once h <= resolution. Anything wider is Unresolved. Assumption: D's slope does not grow
+/// by more than `safety` within a few widths h of the interval, so a continuous curve steeper
+/// than that on a scale below h is indistinguishable from a jump at this resolution. [CP]
+std::vector<JudgedStep> judgeSteps(const std::vector<double>& theta, const std::vector<double>& value,
+                                   const StepRule& rule, const JumpTest& test);
+
 /// max − min of the finite values (0 when fewer than two).
 double finiteRange(const std::vector<double>& value);
 

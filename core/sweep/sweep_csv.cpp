@@ -78,7 +78,9 @@ void readSetting(SweepResult& r, std::map<std::string, std::string>& perMeasure,
   else if (key == "refine_tolerance") r.refineTolerance = settingNumber(key, v, line);
   else if (key == "refined_points") r.refinedPoints = int(settingNumber(key, v, line));
   else if (key == "refine_budget_hit") r.refineBudgetHit = v == "true";
-  else if (key.rfind("frozen.", 0) == 0 || key.rfind("rules.", 0) == 0 || key.rfind("gradient.", 0) == 0)
+  else if (key == "refine_budget") r.refineBudget = int(settingNumber(key, v, line));
+  else if (key.rfind("frozen.", 0) == 0 || key.rfind("rules.", 0) == 0 || key.rfind("gradient.", 0) == 0 ||
+           key.rfind("accuracy.", 0) == 0)
     perMeasure[key] = v;
 }
 
@@ -91,14 +93,19 @@ std::string formatSweepCsv(const SweepResult& r) {
   for (const auto& ser : r.series) ids.push_back(ser.id);
   o << "# barrow sweep, version 1: D(A_θ, B) per measure, then dD/dθ (d_<id>)\n";
   o << "# family=" << s.family << "\n";
-  o << "# direction=" << cell(s.direction[0]) << "," << cell(s.direction[1]) << "\n";
+  // The direction as used: normalised to unit length (only the shift family reads it).
+  const double norm = std::hypot(s.direction[0], s.direction[1]);
+  const bool unit = norm > 0 && std::isfinite(norm);
+  o << "# direction=" << cell(unit ? s.direction[0] / norm : s.direction[0]) << ","
+    << cell(unit ? s.direction[1] / norm : s.direction[1]) << "\n";
   o << "# center=" << (s.center ? cell((*s.center)[0]) + "," + cell((*s.center)[1]) : std::string("auto")) << "\n";
   o << "# from=" << cell(s.from) << "\n# to=" << cell(s.to) << "\n# steps=" << s.steps << "\n";
-  o << "# reference=" << cell(s.reference.value_or(s.from)) << "\n";
+  o << "# reference=" << cell(s.referenceTheta()) << "\n";
   o << "# measures=" << joined(ids, ',') << "\n";
   o << "# seed=" << seedText(r) << "\n";
   o << "# threads=" << r.threads << "\n# warm_start=" << (r.warmStart ? "true" : "false") << "\n";
   o << "# refine_tolerance=" << cell(r.refineTolerance) << "\n# refined_points=" << r.refinedPoints << "\n";
+  o << "# refine_budget=" << r.refineBudget << "\n";
   o << "# refine_budget_hit=" << (r.refineBudgetHit ? "true" : "false") << "\n";
   for (const auto& ser : r.series) {
     std::vector<std::string> kv;
@@ -108,6 +115,7 @@ std::string formatSweepCsv(const SweepResult& r) {
     for (const auto& [k, v] : ser.rules.values()) kv.push_back(k + "=" + v);
     o << "# rules." << ser.id << "=" << joined(kv, ' ') << "\n";
     o << "# gradient." << ser.id << "=" << ser.gradientMethod << "\n";
+    o << "# accuracy." << ser.id << "=" << cell(ser.accuracy) << "\n";
   }
   o << "theta";
   for (const auto& id : ids) o << "," << id;
@@ -198,6 +206,8 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
   for (auto& s : r.series) {
     ids.push_back(s.id);
     if (auto it = perMeasure.find("gradient." + s.id); it != perMeasure.end()) s.gradientMethod = it->second;
+    if (auto it = perMeasure.find("accuracy." + s.id); it != perMeasure.end())
+      if (auto v = parseNumber(it->second); v && *v >= 0 && std::isfinite(*v)) s.accuracy = *v;
     for (auto [prefix, set] : {std::pair{"frozen.", &s.frozen}, std::pair{"rules.", &s.rules}})
       if (auto it = perMeasure.find(prefix + s.id); it != perMeasure.end()) {
         std::istringstream kv(it->second);

@@ -3,6 +3,9 @@
 #include <algorithm>
 #include <atomic>
 #include <chrono>
+#include <cstdio>
+#include <cstdlib>
+#include <limits>
 #include <cmath>
 #include <mutex>
 #include <thread>
@@ -95,13 +98,17 @@ std::vector<Row*> sortedRows(std::vector<std::unique_ptr<Row>>& rows) {
   return out;
 }
 
-/// Midpoints of the intervals some series finds jump-like and wider than `tol`, largest
-/// relative step first, without duplicates.
-std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t measures,
-                                     const StepRule& rule, double tol) {
+/// Midpoints of the intervals some series finds jump-like and wider than `tol`, at most
+/// `room` of them. The budget is shared fairly: each measure's suspects are ranked by relative
+/// step, and the measure that has spent least takes the next point; a measure past its fair
+/// share (budget / measures with suspects) waits while another with suspects is under its
+/// own, so one measure's many suspects (a histogram crossing many bin edges) cannot starve
+/// another's single one. `spent` (per measure, kept across rounds) is updated.
+std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t measures, const StepRule& rule,
+                                     double tol, std::size_t room, int budget, std::vector<int>& spent) {
   std::vector<double> theta(rows.size());
   for (std::size_t k = 0; k < rows.size(); ++k) theta[k] = rows[k]->theta;
-  std::vector<std::pair<double, double>> wanted;  // (priority, midpoint)
+  std::vector<std::vector<std::pair<double, double>>> wanted(measures);  // per measure: (priority, midpoint)
   std::vector<double> value(rows.size());
   for (std::size_t j = 0; j < measures; ++j) {
     for (std::size_t k = 0; k < rows.size(); ++k) value[k] = rows[k]->cells[j].value;
@@ -109,14 +116,39 @@ std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t 
     for (const StepInterval& s : classifySteps(theta, value, rule)) {
       if (!s.jumpLike || theta[s.right] - theta[s.left] <= tol) continue;
       const double priority = std::isfinite(s.step) ? std::abs(s.step) / std::max(range, 1e-300) : 2.0;
-      wanted.push_back({priority, 0.5 * (theta[s.left] + theta[s.right])});
+      wanted[j].push_back({priority, 0.5 * (theta[s.left] + theta[s.right])});
+    }
+    std::stable_sort(wanted[j].begin(), wanted[j].end(), [](auto& x, auto& y) { return x.first > y.first; });
+  }
+  spent.resize(measures, 0);
+  int sharing = 0;
+  for (std::size_t j = 0; j < measures; ++j) sharing += !wanted[j].empty() || spent[j] > 0;
+  const int share = std::max(1, budget / std::max(1, sharing));
+  std::vector<std::size_t> next(measures, 0);
+  std::vector<double> out;
+  while (out.size() < room) {
+    std::size_t pick = measures;
+    bool underShareWaiting = false;
+    for (std::size_t j = 0; j < measures; ++j)
+      if (next[j] < wanted[j].size() && spent[j] < share) underShareWaiting = true;
+    for (std::size_t j = 0; j < measures; ++j) {
+      if (next[j] >= wanted[j].size() || (underShareWaiting && spent[j] >= share)) continue;
+      if (pick == measures || spent[j] < spent[pick]) pick = j;
+    }
+    if (pick == measures) break;
+    const double mid = wanted[pick][next[pick]++].second;
+    if (std::find(out.begin(), out.end(), mid) == out.end()) {
+      out.push_back(mid);
+      ++spent[pick];
     }
   }
-  std::sort(wanted.begin(), wanted.end(), [](auto& x, auto& y) { return x.first > y.first; });
-  std::vector<double> out;
-  for (const auto& w : wanted)
-    if (std::find(out.begin(), out.end(), w.second) == out.end()) out.push_back(w.second);
   return out;
+}
+
+/// Whether any series still has a jump-like interval wider than `tol` (refinement unfinished).
+bool suspectsLeft(const std::vector<Row*>& rows, std::size_t measures, const StepRule& rule, double tol) {
+  std::vector<int> scratch;
+  return !refinementPoints(rows, measures, rule, tol, 1, 1, scratch).empty();
 }
 
 std::vector<const Measure*> pickMeasures(const SweepRequest& req, std::string* why) {
@@ -154,6 +186,7 @@ SweepSeries assembleSeries(const SweepJob& job, std::size_t j, const std::vector
     ser.status.push_back(c.status);
     ser.seconds.push_back(c.seconds);
     ser.oneSided.push_back(c.oneSided);
+    if (std::isfinite(c.accuracy)) ser.accuracy = std::max(ser.accuracy, c.accuracy);
     if (ser.message.empty() && !c.message.empty() && c.status != Status::Cancelled) ser.message = c.message;
   }
   std::vector<bool> jumpAfter(order.size(), false);
@@ -177,17 +210,19 @@ void refine(std::vector<std::unique_ptr<Row>>& rows, SweepRun& run, std::size_t 
             const SweepRequest& req, SweepResult& out) {
   const SweepSettings& s = req.settings;
   const double tol = req.thetaTolerance > 0 ? req.thetaTolerance : 1e-5 * (s.to - s.from);
-  const int budget = req.maxRefinePoints > 0 ? req.maxRefinePoints : std::max(64, s.steps);
+  const int budget = refineBudgetFor(req);
   out.refineTolerance = tol;
+  out.refineBudget = budget;
+  std::vector<int> spent(measures, 0);  // refinement points each measure asked for
   while (!run.stopped()) {
-    std::vector<double> mids = refinementPoints(sortedRows(rows), measures, req.stepRule, tol);
-    if (mids.empty()) break;
     const int room = budget - out.refinedPoints;
     if (room <= 0) {
-      out.refineBudgetHit = true;
+      out.refineBudgetHit = suspectsLeft(sortedRows(rows), measures, req.stepRule, tol);
       break;
     }
-    if (int(mids.size()) > room) mids.resize(std::size_t(room));
+    std::vector<double> mids =
+        refinementPoints(sortedRows(rows), measures, req.stepRule, tol, std::size_t(room), budget, spent);
+    if (mids.empty()) break;
     std::sort(mids.begin(), mids.end());
     std::vector<Row*> fresh;
     for (double t : mids) {
@@ -204,6 +239,8 @@ void refine(std::vector<std::unique_ptr<Row>>& rows, SweepRun& run, std::size_t 
 }
 
 std::optional<std::string> checkRequest(const SweepRequest& req) {
+  if (req.maxRefinePoints > kMaxRefinePoints)
+    return "the refinement budget is limited to " + std::to_string(kMaxRefinePoints) + " θ values";
   if (auto e = req.settings.validate()) return e;
   if (req.threads < 0) return "the thread count must be 0 (all cores) or positive";
   if (!(req.thetaTolerance >= 0) || !std::isfinite(req.thetaTolerance))
@@ -216,6 +253,22 @@ std::optional<std::string> checkRequest(const SweepRequest& req) {
 }
 
 }  // namespace
+
+int refineBudgetFor(const SweepRequest& req) {
+  return req.maxRefinePoints > 0 ? req.maxRefinePoints : std::max(64, req.settings.steps);
+}
+
+double gridTheta(const SweepSettings& s, int k) {
+  if (k <= 0) return s.from;
+  if (k + 1 >= s.steps) return s.to;
+  const double t = s.from + (s.to - s.from) * double(k) / double(s.steps - 1);
+  // Snap to the shortest nearby decimal (0.975, not 0.9750000000000001): the θ evaluated is
+  // then exactly the number printed and read back. The move is a few ulps at most.
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.15g", t);
+  const double snapped = std::strtod(buf, nullptr);
+  return std::abs(snapped - t) <= 4 * std::numeric_limits<double>::epsilon() * std::max(1.0, std::abs(t)) ? snapped : t;
+}
 
 SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, const RunControl* control) {
   const auto start = std::chrono::steady_clock::now();
@@ -242,7 +295,8 @@ SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, co
   out.threads = threads;
 
   // Freeze data-dependent settings on (A_θ0, B) and probe each measure there once.
-  const double theta0 = s.reference.value_or(s.from);
+  const double theta0 = s.referenceTheta();
+  out.referenceTheta = theta0;
   const Cloud a0 = family.at(theta0);
   const bool velocity = s.family != "mix" && req.analyticGradients;
   std::vector<SweepJob> jobs;
@@ -254,7 +308,7 @@ SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, co
   std::vector<std::unique_ptr<Row>> rows;
   for (int k = 0; k < s.steps; ++k) {
     auto row = std::make_unique<Row>();
-    row->theta = k + 1 == s.steps ? s.to : s.from + (s.to - s.from) * double(k) / double(s.steps - 1);
+    row->theta = gridTheta(s, k);
     row->cells.resize(jobs.size());
     rows.push_back(std::move(row));
   }

@@ -35,12 +35,22 @@ struct SweepRequest {
   int threads = 0;            // 0 = all cores
   bool analyticGradients = true;  // false: finite differences for every measure
   double thetaTolerance = 0.0;    // refinement stops at this θ width; 0 = 1e-5 × (to − from)
-  int maxRefinePoints = 0;        // θ values refinement may insert; 0 = max(64, steps)
+  int maxRefinePoints = 0;        // θ values refinement may insert; 0 = max(64, steps);
+                                  // at most kMaxRefinePoints
   StepRule stepRule;              // what counts as jump-like (shared with the findings)
   /// Measures to sweep given as objects (custom or test measures); when non-empty they are
   /// used instead of settings.measures and the registry. Pointers must outlive the call.
   std::vector<const Measure*> measureObjects;
 };
+
+constexpr int kMaxRefinePoints = 100000;
+
+/// The refinement budget a request gets (its own, or the default max(64, steps)).
+int refineBudgetFor(const SweepRequest& req);
+
+/// The k-th θ of the grid (k = 0 … steps − 1), from `from` to `to` in equal steps, snapped to
+/// the shortest decimal within a few ulps.
+double gridTheta(const SweepSettings& s, int k);
 
 /// Never throws for bad input: an unusable request gives an empty θ list and the reason in
 /// `message`; a measure that fails at some θ gets NaN there with its status and message.

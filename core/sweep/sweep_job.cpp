@@ -87,6 +87,8 @@ SweepCell SweepJob::evaluate(const Cloud& at, const Cloud& b, const Eigen::Matri
   if (r.status == Status::Infinite) c.value = INFINITY;
   else if (r.usable()) c.value = r.value;
   if (r.status != Status::Ok) c.message = r.message;
+  if (const auto it = r.details.find("value_accuracy"); it != r.details.end() && it->is_number())
+    c.accuracy = it->get<double>();
   c.oneSided = planNotUnique(r.details);
   if (analytic_ && std::isfinite(c.value) && velocity.rows() == at.size()) {
     if (auto g = tryGradient(*m_, at, b, frozen_, r, control, req.warm)) {

@@ -19,6 +19,7 @@ struct SweepCell {
   bool analyticSlope = false;
   bool oneSided = false;          // "plan_unique": false
   double seconds = 0.0;
+  double accuracy = 0.0;          // the value's stated absolute accuracy (details "value_accuracy")
   std::string message;            // the measure's note when it failed or did not converge
 };
 

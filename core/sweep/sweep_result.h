@@ -24,6 +24,7 @@ struct SweepSeries {
   ParamSet rules;                     // the data-dependent settings freezing replaced, as given
   nlohmann::json details = nlohmann::json::object();  // estimator settings etc. at the reference
   std::string message;                // first failure's reason; empty when every θ succeeded
+  double accuracy = 0.0;              // absolute accuracy of the values (largest the solver stated)
 };
 
 struct SweepResult {
@@ -37,6 +38,8 @@ struct SweepResult {
   double refineTolerance = 0.0;       // θ width refinement bisected down to; 0 = no refinement
   int refinedPoints = 0;              // θ values inserted by refinement
   bool refineBudgetHit = false;       // refinement stopped at its point budget, not at the tolerance
+  double referenceTheta = 0.0;        // θ0 where data-dependent settings were frozen
+  int refineBudget = 0;               // θ values refinement was allowed to insert
   int threads = 0;                    // worker threads used (θ is split into that many chunks)
   bool warmStart = true;              // warm starts between neighbouring θ within a chunk
 };

@@ -10,6 +10,10 @@ const std::vector<std::string>& familyNames() {
   return names;
 }
 
+double identityTheta(const std::string& family) { return family == "scale" ? 1.0 : 0.0; }
+
+double SweepSettings::referenceTheta() const { return reference.value_or(identityTheta(family)); }
+
 std::optional<std::string> SweepSettings::validate() const {
   const auto& f = familyNames();
   if (std::find(f.begin(), f.end(), family) == f.end())

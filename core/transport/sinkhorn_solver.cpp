@@ -78,9 +78,12 @@ struct LoopControl {
 
   bool running() const { return !converged && !cancelled; }
   /// False when the loop must stop here (converged, out of budget, or asked to stop).
-  bool proceed(int stage, bool last) {
+  /// `settled`: the other marginal is exact for the current weights, so the measured one
+  /// decides convergence (false before the first half step of a solve: a warm start's g was
+  /// made for other weights, and the row error alone cannot see that).
+  bool proceed(int stage, bool last, bool settled = true) {
     if (last && firstError < 0) firstError = r.marginalError;
-    if (last && r.marginalError <= o.tolerance) converged = true;
+    if (last && settled && r.marginalError <= o.tolerance) converged = true;
     else if (r.iterations >= o.maxIterations) return false;
     else if (control && control->shouldStop(progressOf(stage, r.stages, firstError, r.marginalError, o.tolerance)))
       cancelled = true;
@@ -201,7 +204,7 @@ SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a
         r.g = lastG;
         continue;
       }
-      if (!loop.proceed(s, last)) break;
+      if (!loop.proceed(s, last, r.iterations > 0)) break;
       const double w = last && o.overRelaxation ? relax.omega() : 1.0;
       if (w != 1.0) {
         lastF = r.f;

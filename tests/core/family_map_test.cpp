@@ -86,7 +86,7 @@ TEST(FamilyMapTest, MixIsTheUnionWithWeightsShared) {
   const FamilyMap f(cloudA(), cloudB(), settings("mix"));
   const Cloud m = f.at(0.25);
   ASSERT_EQ(m.size(), 7);
-  EXPECT_NEAR(m.totalWeight(), 1.0, 1e-15);
+  EXPECT_NEAR(m.weights.sum(), 1.0, 1e-15);
   EXPECT_NEAR(m.weights(1), 0.75 * 0.2, 1e-15);      // A's weight 2 of 10, times 1 − θ
   EXPECT_NEAR(m.weights(4), 0.25 / 3.0, 1e-15);      // B uniform, times θ
   EXPECT_EQ(m.points.bottomRows(3), cloudB().points);
