@@ -85,7 +85,8 @@ TEST(CliSweepTest, SweepWritesTheContractHeaderOneRowPerThetaAndSettings) {
   EXPECT_EQ(std::stod(c.rows.back()[0]), 1.0);
   std::string comments;
   for (const auto& l : c.comments) comments += l + "\n";
-  for (const char* s : {"# family=shift", "# direction=2,0", "# from=-1", "# to=1", "# steps=21", "# reference=-1",
+  for (const char* s : {"# family=shift", "# direction=1,0", "# from=-1", "# to=1", "# steps=21", "# reference=0",
+                        "# refine_budget=",
                         "# seed=", "# threads=", "# frozen."})
     EXPECT_NE(comments.find(s), std::string::npos) << s << "\n" << comments;
   std::remove(path.c_str());
@@ -128,16 +129,19 @@ void expectFindingsShape(const std::string& json, std::size_t measures) {
     std::vector<std::string> keys;
     for (auto it = f.begin(); it != f.end(); ++it) keys.push_back(it.key());
     std::sort(keys.begin(), keys.end());
-    EXPECT_EQ(keys, (std::vector<std::string>{"continuous", "flat", "id", "jumps", "lipschitz", "monotone", "summary"}));
+    EXPECT_EQ(keys, (std::vector<std::string>{"continuous", "flat", "id", "jumps", "lipschitz", "monotone", "summary",
+                                              "unresolved"}));
     EXPECT_TRUE(f["id"].is_string());
     EXPECT_TRUE(f["continuous"].is_boolean());
     EXPECT_TRUE(f["monotone"].is_boolean());
     EXPECT_TRUE(f["lipschitz"].is_number() || f["lipschitz"].is_null());
     EXPECT_TRUE(f["summary"].is_string());
-    for (const auto& jump : f["jumps"]) {
-      EXPECT_TRUE(jump["theta"].is_number());
-      EXPECT_TRUE(jump["size"].is_number() || jump["size"].is_null());
-    }
+    for (const char* list : {"jumps", "unresolved"})
+      for (const auto& jump : f[list]) {
+        EXPECT_TRUE(jump["theta"].is_number());
+        EXPECT_TRUE(jump["size"].is_number() || jump["size"].is_null());
+        if (jump["size"].is_null()) EXPECT_TRUE(jump.contains("to") || jump.contains("from")) << jump.dump();
+      }
     for (const auto& s : f["flat"]) {
       ASSERT_TRUE(s.is_array());
       EXPECT_EQ(s.size(), 2u);

@@ -143,18 +143,49 @@ TEST(ContinuityTest, JumpToInfinityAndTheInfiniteStretchAreReported) {
 }
 
 // Without refinement the rule sees the grid only: a step much larger than its neighbours
-// is a jump, and the summary says how it was judged; a slope twice the others is not.
-TEST(ContinuityTest, GridAloneRuleFlagsOutlierStepsAndSaysSo) {
+// is a suspect, but it cannot be confirmed, so it is "unresolved" (never a jump) and the
+// summary says why; a slope twice the others is not even a suspect.
+TEST(ContinuityTest, GridAloneRuleLeavesOutlierStepsUnresolvedAndSaysSo) {
   const auto step = sweepOf("tv", grid(0, 1, 21), [](double t) { return t > 0.52 ? 1.0 + 0.1 * t : 0.1 * t; });
   const Finding f = findContinuity(step)[0];
-  ASSERT_EQ(f.jumps.size(), 1u);
-  EXPECT_NEAR(f.jumps[0].theta, 0.525, 1e-12);
-  EXPECT_NEAR(f.jumps[0].size, 1.005, 1e-12);
-  EXPECT_NE(f.summary.find("grid alone"), std::string::npos) << f.summary;
-  EXPECT_NEAR(f.lipschitz, 0.1, 1e-12);  // the jump interval is left out
+  EXPECT_TRUE(f.jumps.empty());
+  ASSERT_EQ(f.unresolved.size(), 1u);
+  EXPECT_NEAR(f.unresolved[0].theta, 0.525, 1e-12);
+  EXPECT_NEAR(f.unresolved[0].size, 1.005, 1e-12);
+  EXPECT_FALSE(f.continuous);
+  EXPECT_NE(f.summary.find("without refinement"), std::string::npos) << f.summary;
+  EXPECT_NEAR(f.lipschitz, 0.1, 1e-12);  // the suspect interval is left out
 
   const auto kink = sweepOf("w2", grid(0, 1, 21), [](double t) { return t < 0.5 ? t : 0.5 + 2 * (t - 0.5); });
   EXPECT_TRUE(findContinuity(kink)[0].continuous);
+}
+
+// A measure that is +∞ at every θ says exactly that (disjoint supports for KL) [D].
+TEST(ContinuityTest, InfiniteEverywhereIsSaidPlainly) {
+  const auto r = sweepOf("kl_ab", grid(0, 1, 11), [](double) { return INFINITY; }, 1e-5);
+  const Finding f = findContinuity(r)[0];
+  EXPECT_TRUE(f.jumps.empty());
+  EXPECT_EQ(f.summary, "kl_ab is +∞ at every θ of the sweep: it gives no gradient anywhere");
+}
+
+// A jump to +∞ keeps its direction in JSON, and one from +∞ too [D].
+TEST(ContinuityTest, JumpsToAndFromInfinityKeepTheirDirectionInJson) {
+  auto theta = grid(-1, 1, 41);
+  refineAround(theta, -0.31, 2e-5);
+  refineAround(theta, 0.31, 2e-5);
+  const auto r = sweepOf("kl_ab", theta, [](double t) { return std::abs(t) > 0.31 ? 1.0 + t : INFINITY; }, 2e-5);
+  const auto j = findingsToJson(findContinuity(r));
+  const auto& jumps = j["findings"][0]["jumps"];
+  ASSERT_EQ(jumps.size(), 2u) << j.dump();
+  EXPECT_EQ(jumps[0]["to"], "inf");
+  EXPECT_EQ(jumps[1]["from"], "inf");
+  EXPECT_TRUE(jumps[0]["size"].is_null());
+}
+
+// A curve that drops, rises and drops again is not monotone away from its best θ [D].
+TEST(ContinuityTest, DropRiseDropIsNotMonotone) {
+  const auto r = sweepOf("x", grid(0, 1, 41), [](double t) { return std::cos(9.0 * t) + 0.3 * t; });
+  EXPECT_FALSE(findContinuity(r)[0].monotone);
 }
 
 TEST(ContinuityTest, FailuresAreSkippedAndCounted) {

@@ -409,12 +409,17 @@ TEST(SweepEngineTest, SteepSigmoidIsContinuousAndStepIsAJump) {
   // Its steepest slope is 1/(4w) = 125 [D]; the estimate sees most of it after refinement.
   EXPECT_GT(f[1].lipschitz, 100.0);
   EXPECT_LE(f[1].lipschitz, 125.0 + 1e-9);
-  // Without refinement the grid alone cannot tell the two apart, and the findings say so.
+  // Without refinement the grid alone cannot tell the two apart: both stay unresolved, neither
+  // is called a jump, and the findings say so.
   auto req = request({&step, &steep});
   req.refineJumps = false;
   const auto g = findContinuity(runSweep(cloudA(), cloudB(), req));
-  EXPECT_FALSE(g[1].continuous);
-  EXPECT_NE(g[1].summary.find("grid alone"), std::string::npos) << g[1].summary;
+  for (const auto& fg : g) {
+    EXPECT_FALSE(fg.continuous);
+    EXPECT_TRUE(fg.jumps.empty()) << fg.summary;
+    EXPECT_EQ(fg.unresolved.size(), 1u) << fg.summary;
+    EXPECT_NE(fg.summary.find("without refinement"), std::string::npos) << fg.summary;
+  }
 }
 
 TEST(SweepEngineTest, JumpToInfinityIsLocatedAndCounted) {
