@@ -44,7 +44,9 @@ const char* kFindingsRule = R"(How a jump is decided:
   suspect down to the resolution H. A suspect is reported as a *jump* only when, at width <= H,
   its change is above the noise floor (0.1 % of the range, and twice the solver's stated
   accuracy) and above 4 × (the largest slope of up to 3 neighbouring intervals) × its width:
-  no slope seen around it can explain the change. A change to or from +∞ is a jump once
+  no slope seen around it can explain the change. Detection limit: a jump of size J where the
+  curve's slope is L is seen on a grid of spacing Δθ when |J| is above about 4·L·Δθ; smaller
+  jumps pass as slope (raise --steps to see them). A change to or from +∞ is a jump once
   bisected to H. A suspect the budget could not bring down to H is listed as *unresolved*
   (JSON "unresolved"), never as a jump. Assumption: the slope of D does not grow more than
   4-fold within a few widths H; a continuous change steeper than that below H cannot be told

@@ -126,11 +126,13 @@ std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t 
   const int share = std::max(1, budget / std::max(1, sharing));
   std::vector<std::size_t> next(measures, 0);
   std::vector<double> out;
+  // A measure under its share with suspects left keeps the others at their share this round:
+  // its bisection goes one level per round, so the room must wait for its next suspects.
+  bool underShareWaiting = false;
+  for (std::size_t j = 0; j < measures; ++j)
+    if (!wanted[j].empty() && spent[j] < share) underShareWaiting = true;
   while (out.size() < room) {
     std::size_t pick = measures;
-    bool underShareWaiting = false;
-    for (std::size_t j = 0; j < measures; ++j)
-      if (next[j] < wanted[j].size() && spent[j] < share) underShareWaiting = true;
     for (std::size_t j = 0; j < measures; ++j) {
       if (next[j] >= wanted[j].size() || (underShareWaiting && spent[j] >= share)) continue;
       if (pick == measures || spent[j] < spent[pick]) pick = j;

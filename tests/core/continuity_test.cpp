@@ -224,7 +224,9 @@ TEST(ContinuityTest, ConstantSeriesHasNoGradientAnywhere) {
 }
 
 TEST(ContinuityTest, JsonHasTheContractShapeAndKeyOrder) {
-  const auto r = sweepOf("js", grid(0, 1, 21), [](double t) { return t > 0.13 ? std::log(2.0) : 0.0; });
+  auto theta = grid(0, 1, 21);
+  refineAround(theta, 0.13, 2e-5);
+  const auto r = sweepOf("js", theta, [](double t) { return t > 0.13 ? std::log(2.0) : 0.0; }, 2e-5);
   const auto j = findingsToJson(findContinuity(r));
   const std::string text = j.dump();
   EXPECT_EQ(text.rfind("{\"findings\":[{\"id\":\"js\",\"continuous\":false,\"jumps\":[{\"theta\":", 0), 0u) << text;

@@ -417,7 +417,7 @@ TEST(SweepEngineTest, SteepSigmoidIsContinuousAndStepIsAJump) {
   for (const auto& fg : g) {
     EXPECT_FALSE(fg.continuous);
     EXPECT_TRUE(fg.jumps.empty()) << fg.summary;
-    EXPECT_EQ(fg.unresolved.size(), 1u) << fg.summary;
+    EXPECT_GE(fg.unresolved.size(), 1u) << fg.summary;
     EXPECT_NE(fg.summary.find("without refinement"), std::string::npos) << fg.summary;
   }
 }
