@@ -95,8 +95,8 @@ void printSweepFrame(const SweepResult& r, std::FILE* to) {
   std::fprintf(to, "  settings frozen at the reference θ0 = %s (%s)\n", formatNumber(r.referenceTheta).c_str(),
                s.reference ? "set with --reference" : "the family's identity: A as given");
   if (r.refineTolerance > 0)
-    std::fprintf(to, "  jumps confirmed to Δθ <= %s; refinement budget %d θ values, %d used%s\n",
-                 formatNumber(r.refineTolerance).c_str(), r.refineBudget, r.refinedPoints,
+    std::fprintf(to, "  jumps confirmed to Δθ <= %.3g; refinement budget %d θ values, %d used%s\n",
+                 r.refineTolerance, r.refineBudget, r.refinedPoints,
                  r.refineBudgetHit ? " (ran out: some suspects stay unresolved; raise --refine-budget)" : "");
 }
 
