@@ -74,7 +74,8 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
                          ? "x exact between the crossings of f_A and f_B (Newton-refined), y by adaptive "
                            "Gauss-Kronrod 7/15; error estimate = sum |K15 - G7| over the panels + outside-mass "
                            "tail (an estimate)"
-                         : "rectangle rule on the grid nodes; error = |I(h) - I(2h)| + outside-mass tail";
+                         : "rectangle rule on the grid nodes; error estimate (not a bound) = |I(h) - I(2h)| + "
+                           "outside-mass tail";
   if (kind == DivergenceKind::Tv) {
     d["tv_panels"] = tv.panels;
     d["tv_rows"] = tv.rows;

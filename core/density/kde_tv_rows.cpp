@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <atomic>
 #include <cmath>
+#include <limits>
 #include <vector>
 
 #include "density/gauss_kronrod.h"
@@ -90,15 +91,15 @@ class RowIntegrator {
       if (sg == 0) continue;
       if (last >= 0) {
         if (sg != lastSign) {
-          roots_.push_back(refine(nodes_.at(last), nodes_.at(k), lastSign));
+          roots_.push_back(refine(nodes_.at(last), nodes_.at(k), lastSign, startInCell(last, k)));
         } else if (last == k - 1 && hiddenPairPossible(last, k, sg)) {
           // The slope turns toward zero inside the cell: find the turn exactly and look.
           const double turn = slopeZero(nodes_.at(last), nodes_.at(k), sg);
           double mag = 0.0;
           const double dt = value(turn, nullptr, &mag);
           if (sg * dt < -kNoise * mag) {
-            roots_.push_back(refine(nodes_.at(last), turn, sg));
-            roots_.push_back(refine(turn, nodes_.at(k), -sg));
+            roots_.push_back(refine(nodes_.at(last), turn, sg, 0.5 * (nodes_.at(last) + turn)));
+            roots_.push_back(refine(turn, nodes_.at(k), -sg, 0.5 * (turn + nodes_.at(k))));
             ++r.hidden;
           }
         }
@@ -205,13 +206,39 @@ class RowIntegrator {
     return sum;
   }
 
-  // The crossing in (lo, hi), where d has sign sLo at lo and the other sign at hi:
-  // Newton steps kept inside a shrinking bracket, bisection when a step would leave it.
-  double refine(double lo, double hi, int sLo) const {
+  // How closely a crossing is located: 1e-12 s_x, or a few units in the last place of x when
+  // the data sit far from the origin (coordinates near 1e6 are 1.2e-10 apart).
+  double resolution(double x) const {
+    return std::max(kRootTolerance * s_.x(), 4 * std::abs(x) * std::numeric_limits<double>::epsilon());
+  }
+
+  // A first guess for the crossing between nodes l < r (d of opposite signs there): the root
+  // of the cubic Hermite interpolant from d and ∂d/∂x at adjacent nodes (error O(h⁴), so
+  // Newton needs about two steps), else linear interpolation across the zero-sign nodes.
+  double startInCell(int l, int r) const {
+    const double y0 = d_[std::size_t(l)], y1 = d_[std::size_t(r)];
+    const double xl = nodes_.at(l), xr = nodes_.at(r);
+    if (r != l + 1) return xl + (xr - xl) * y0 / (y0 - y1);
+    const double h = xr - xl, m0 = slope_[std::size_t(l)] * h, m1 = slope_[std::size_t(r)] * h;
+    auto p = [&](double t) {
+      const double t2 = t * t, t3 = t2 * t;
+      return (2 * t3 - 3 * t2 + 1) * y0 + (t3 - 2 * t2 + t) * m0 + (-2 * t3 + 3 * t2) * y1 + (t3 - t2) * m1;
+    };
+    double a = 0.0, b = 1.0;
+    for (int it = 0; it < 40; ++it) {  // the cubic changes sign on [0, 1]: bisect it
+      const double mid = 0.5 * (a + b);
+      if ((p(mid) > 0) == (y0 > 0)) a = mid;
+      else b = mid;
+    }
+    return xl + h * 0.5 * (a + b);
+  }
+
+  // The crossing in (lo, hi), where d has sign sLo at lo and the other sign at hi, from the
+  // guess x: Newton steps kept inside a shrinking bracket, bisection when a step would leave it.
+  double refine(double lo, double hi, int sLo, double x) const {
     double slope = 0.0;
-    const double fl = value(lo, nullptr, nullptr), fh = value(hi, nullptr, nullptr);
-    double x = (sLo * fl > 0 && sLo * fh < 0) ? lo + (hi - lo) * fl / (fl - fh) : 0.5 * (lo + hi);
-    const double tol = kRootTolerance * s_.x();
+    if (!(x > lo && x < hi)) x = 0.5 * (lo + hi);
+    const double tol = resolution(x);
     for (int it = 0; it < 100; ++it) {
       const double f = value(x, &slope, nullptr);
       if (f == 0.0) return x;
@@ -229,8 +256,7 @@ class RowIntegrator {
   // by sg), by bisection on the exact slope.
   double slopeZero(double lo, double hi, int sg) const {
     double slope = 0.0;
-    const double tol = kRootTolerance * s_.x();
-    while (hi - lo > tol) {
+    for (int it = 0; it < 60 && hi - lo > resolution(lo); ++it) {
       const double mid = 0.5 * (lo + hi);
       value(mid, &slope, nullptr);
       if (sg * slope < 0) lo = mid;

@@ -2,6 +2,7 @@
 // rules stated in `measure --help`.
 #include <gtest/gtest.h>
 
+#include <map>
 #include <nlohmann/json.hpp>
 #include <sstream>
 
@@ -39,7 +40,7 @@ TEST(CliUnitsTest, JsonEntriesCarryTheUnitOfTheSettingsUsed) {
       EXPECT_EQ(row["unit"], measureUnit(*m, p)) << m->id();
     }
     std::map<std::string, std::string> unit;
-    for (const auto& row : j["measures"]) unit[row["id"]] = row["unit"];
+    for (const auto& row : j["measures"]) unit[row["id"].get<std::string>()] = row["unit"].get<std::string>();
     EXPECT_EQ(unit["w2"], "length");
     EXPECT_EQ(unit["js"], "nats");
     EXPECT_EQ(unit["entropic"], sets.empty() ? "length^2" : "length");
