@@ -46,12 +46,14 @@ TEST(GaussKronrodTest, RulesHaveTheirPublishedNodesAndDegrees) {
 }
 
 // The converged reference, written independently in SciPy: along each row y the sign changes
-// of f_A − f_B are bracketed on a scan s_x/16 apart and solved by scipy.optimize.brentq; the
+// of f_A − f_B are bracketed on a scan s_x/24 apart and solved by scipy.optimize.brentq; the
 // row integral is Σ|G(r_{k+1}) − G(r_k)| with G from scipy.special.erfc [D]; the rows are
-// integrated by scipy.integrate.quad (QUADPACK qags, epsabs 1e-12, epsrel 1e-10, 5000
-// subintervals) over the data's y-range ± 12 s_y. Checked once against brute force: a plain
-// 2-D grid of s/80 agrees with it to 1.6e-8 relative on the 7 × 5 instance (its own O(h²)
-// error); quad reports 3e-11 for that instance.
+// integrated by scipy.integrate.quad (QUADPACK qags, epsabs 1e-14, epsrel 1e-11) on pieces
+// s_y/2 wide over the data's y-range ± 12 s_y. One quad call over the whole range was not
+// enough: on the narrow-bandwidth instance it stopped 2.5e-9 off (its round-off warning), where
+// the pieces, a scan twice as fine and Barrow agree to 2e-12. Checked once against brute
+// force: a plain 2-D grid of s/80 agrees with it to 1.6e-8 relative on the 7 × 5 instance (the
+// grid's own O(h²) error).
 const char* kReference = R"(
 import numpy as np, warnings
 from scipy.integrate import quad
@@ -62,7 +64,7 @@ def tv_ref(pa, wa, pb, wb, sx, sy):
     P=np.vstack([pa,pb]); C=np.concatenate([wa/wa.sum(), -wb/wb.sum()])
     keep=C!=0; P=P[keep]; C=C[keep]
     lo=P.min(0)-12*np.array([sx,sy]); hi=P.max(0)+12*np.array([sx,sy])
-    xs=np.arange(lo[0], hi[0], sx/16)
+    xs=np.arange(lo[0], hi[0], sx/24)
     K=np.exp(-0.5*((xs[:,None]-P[None,:,0])/sx)**2)
     def row(y):
         c=C*np.exp(-0.5*((y-P[:,1])/sy)**2)/(sy*S2PI)
@@ -79,7 +81,9 @@ def tv_ref(pa, wa, pb, wb, sx, sy):
         return t+abs(c.sum()-prev)
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")
-        v,err=quad(row, lo[1], hi[1], epsabs=1e-12, epsrel=1e-10, limit=5000)
+        edges=np.arange(lo[1], hi[1]+sy/2, sy/2); v=0.0
+        for e0,e1 in zip(edges[:-1],edges[1:]):
+            v+=quad(row, e0, e1, epsabs=1e-14, epsrel=1e-11, limit=200)[0]
     return 0.5*v
 )";
 
