@@ -23,7 +23,7 @@ const std::string kPair =
 // [D] The contract (DESIGN.md, second wave): `measure --json` entries carry "unit"; it is the
 // unit the measure declares for the settings used, so it follows entropic.p and chamfer.squared.
 TEST(CliUnitsTest, JsonEntriesCarryTheUnitOfTheSettingsUsed) {
-  for (const std::string sets : {std::string(), std::string(" --set entropic.p=1 --set chamfer.squared=true")}) {
+  for (const std::string& sets : {std::string(), std::string(" --set entropic.p=1 --set chamfer.squared=true")}) {
     std::string out, err;
     ASSERT_EQ(cli("measure" + kPair + " --json" + sets, &out, &err), 0) << err;
     const auto j = nlohmann::json::parse(out);

@@ -72,7 +72,9 @@ TEST(TranslationTest, AutomaticHistogramGridMovesWithTheData) {
     const Result r0 = evaluateMeasure(m, a, b, {});
     const Result r1 = evaluateMeasure(m, shifted(a, 3.7, -1.2), shifted(b, 3.7, -1.2), {});
     EXPECT_EQ(r0.status, r1.status) << id;
-    if (r0.status == Status::Ok) EXPECT_EQ(r0.value, r1.value) << id;  // same bins, same sums
+    if (r0.status == Status::Ok) {
+      EXPECT_EQ(r0.value, r1.value) << id;  // same bins, same sums
+    }
     EXPECT_NEAR(r1.details["origin"][0].get<double>() - r0.details["origin"][0].get<double>(), 3.7, 1e-12);
   }
 }
