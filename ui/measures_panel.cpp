@@ -10,6 +10,7 @@
 
 #include "measure_style.h"
 #include "measures/param_text.h"
+#include "measures/units.h"
 #include "param_editor.h"
 #include "result_text.h"
 
@@ -17,7 +18,7 @@ namespace barrow::ui {
 
 namespace {
 
-enum Column { kName = 0, kValue, kChange, kStatus, kTime, kColumns };
+enum Column { kName = 0, kValue, kChange, kUnit, kStatus, kTime, kColumns };
 constexpr int kIdRole = Qt::UserRole + 1;
 constexpr int kKeyRole = Qt::UserRole + 2;
 
@@ -32,10 +33,12 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   layout->addWidget(details_, 1);
   tree_->setObjectName("measuresTable");
   tree_->setColumnCount(kColumns);
-  tree_->setHeaderLabels({tr("Measure"), tr("Value"), tr("Δ from θ₀"), tr("Status"), tr("Time")});
+  tree_->setHeaderLabels({tr("Measure"), tr("Value"), tr("Δ from θ₀"), tr("Unit"), tr("Status"), tr("Time")});
   tree_->headerItem()->setToolTip(kName, tr("Tick a measure to put it on the Sweep plots; unfold it to edit its parameters"));
   tree_->headerItem()->setToolTip(kValue, tr("D(A, B) as defined in the design notes, for the clouds on the Field"));
   tree_->headerItem()->setToolTip(kChange, tr("Value minus the value with A at the reference θ₀ of the sweep"));
+  tree_->headerItem()->setToolTip(kUnit, tr("Unit of the value and of its change: length is the unit of the "
+                                           "coordinates; nats for KL and JS (see the details below)"));
   tree_->headerItem()->setToolTip(kStatus, tr("ok, infinite, not converged (with the marginal error) or invalid (with the reason)"));
   tree_->headerItem()->setToolTip(kTime, tr("Wall time of the last evaluation"));
   tree_->setAlternatingRowColors(true);
@@ -49,6 +52,7 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   // update, which is most of the cost of a table refresh while points are dragged.
   const QFontMetrics fm(font());
   const int widths[kColumns] = {0, fm.horizontalAdvance("0.000000  "), fm.horizontalAdvance("+0.000000  "),
+                                fm.horizontalAdvance("dimensionless  "),
                                 fm.horizontalAdvance("updating…  "), fm.horizontalAdvance("000.0 ms  ")};
   for (int c = kValue; c < kColumns; ++c) {
     tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);
@@ -131,7 +135,7 @@ void MeasuresPanel::build() {
       child->setText(kName, key);
       child->setData(kName, kIdRole, id);
       child->setData(kValue, kKeyRole, key);
-      child->setText(kChange, QString::fromStdString(p.unit));
+      child->setText(kUnit, QString::fromStdString(p.unit));
       child->setText(kStatus, QString::fromStdString(barrow::rangeShort(p)));
       const QString tip = QString::fromStdString(p.help) + "\n" + tr("Valid: %1").arg(describeRange(p)) +
                           "\n" + tr("Default: %1").arg(QString::fromStdString(p.defaultValue)) +
@@ -160,6 +164,8 @@ void MeasuresPanel::refreshParams() {
   for (const Measure* m : measures_) {
     QTreeWidgetItem* row = rowOf(m->id());
     if (!row) continue;
+    row->setText(kUnit, QString::fromStdString(measureUnit(*m, user)));
+    row->setToolTip(kUnit, QString::fromStdString(m->unitRule()));
     const auto specs = m->params();
     for (int c = 0; c < row->childCount(); ++c) {
       QTreeWidgetItem* child = row->child(c);
@@ -248,13 +254,14 @@ void MeasuresPanel::showDetails(const std::string& id) {
 
 std::string MeasuresPanel::toCsv() const {
   std::ostringstream o;
-  o << "id,name,value,change,status,seconds\n";
+  o << "id,name,value,unit,change,status,seconds\n";
   for (const Measure* m : measures_) {
     auto it = results_.find(m->id());
     if (it == results_.end()) continue;
     const Result& r = it->second;
     const auto ref = references_.find(m->id());
-    o << m->id() << ",\"" << m->displayName() << "\"," << csvNumber(r) << ',';
+    o << m->id() << ",\"" << m->displayName() << "\"," << csvNumber(r) << ',' << measureUnit(*m, doc_->session().params)
+      << ',';
     if (ref != references_.end() && ref->second && r.usable() && ref->second->usable())
       o << csvDifference(r.value, ref->second->value);
     o << ',' << statusName(r.status) << ',' << r.seconds << '\n';

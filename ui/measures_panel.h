@@ -1,5 +1,5 @@
 // The Measures table: one row per registered measure with its value, the change from the
-// reference θ, its status (with the reason), compute time, and a check box that puts it on
+// reference θ, the unit of both, its status (with the reason), compute time, and a check box that puts it on
 // the Sweep plots. Each row unfolds into its parameters, editable in place with units and
 // valid ranges from the measure's ParamSpec. Below, the selected measure's formula and the
 // settings it actually used.
@@ -29,11 +29,12 @@ class MeasuresPanel : public QWidget {
   void markUpdating();
   void applyUpdate(const LiveUpdate& u);
 
-  /// Cell texts, for tests and the CSV export: column 0..4 of a measure's row.
+  /// Cell texts, for tests and the CSV export: column 0..5 of a measure's row (name, value,
+  /// change, unit, status, time).
   QString cellText(const std::string& id, int column) const;
   /// The latest result of a measure for the current request, if it arrived.
   const Result* result(const std::string& id) const;
-  /// Table as CSV (id, name, value, change, status, seconds).
+  /// Table as CSV (id, name, value, unit, change, status, seconds).
   std::string toCsv() const;
   QTreeWidget* tree() const { return tree_; }
   void focusMeasure(const std::string& id);

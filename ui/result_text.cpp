@@ -80,6 +80,8 @@ QString detailsHtml(const Measure& m, const Result* r) {
   QString h = "<b>" + QString::fromStdString(m.displayName()).toHtmlEscaped() + "</b> <tt>[" +
               QString::fromStdString(m.id()) + "]</tt><br><tt>" +
               QString::fromStdString(m.formula()).toHtmlEscaped() + "</tt>";
+  if (!m.unitRule().empty())
+    h += "<br>" + QObject::tr("Unit: %1").arg(QString::fromStdString(m.unitRule()).toHtmlEscaped());
   if (!m.cheap()) h += "<br><i>" + QObject::tr("Slow: updates after the cheap measures.") + "</i>";
   if (!r) return h;
   h += "<br>" + QObject::tr("Status: %1").arg(statusText(*r).toHtmlEscaped());

@@ -8,6 +8,7 @@
 #include "cli/commands.h"
 #include "measures/details_text.h"
 #include "measures/evaluate.h"
+#include "measures/units.h"
 
 namespace barrow::cli {
 
@@ -24,9 +25,11 @@ int runMeasure(const std::vector<std::string>& argv) {
   for (const Measure* m : measures) {
     const Result r = evaluateMeasure(*m, a, b, req);
     if (r.status == Status::InvalidInput) unusable.push_back(m->id() + ": " + r.message);
+    const std::string unit = measureUnit(*m, req.params);
     nlohmann::json row = {{"id", m->id()},
                           {"name", m->displayName()},
                           {"value", std::isfinite(r.value) ? nlohmann::json(r.value) : nlohmann::json()},
+                          {"unit", unit},
                           {"status", statusName(r.status)},
                           {"seconds", r.seconds},
                           {"iterations", r.iterations},
@@ -34,8 +37,9 @@ int runMeasure(const std::vector<std::string>& argv) {
     if (!r.message.empty()) row["message"] = r.message;
     out["measures"].push_back(row);
     if (!args.flag("json")) {
-      std::printf("%-10s %-22s %-14s %8.3f ms\n", m->id().c_str(), formatNumber(r.value).c_str(),
-                  statusName(r.status), r.seconds * 1e3);
+      const std::string shown = formatNumber(r.value) + " " + unit;  // the unit right beside the number
+      std::printf("%-10s %-36s %-14s %8.3f ms\n", m->id().c_str(), shown.c_str(), statusName(r.status),
+                  r.seconds * 1e3);
       if (!r.message.empty()) std::printf("%-10s note: %s\n", "", r.message.c_str());
       for (const auto& line : detailLines(r.details)) std::printf("%-10s %s\n", "", line.c_str());
     }

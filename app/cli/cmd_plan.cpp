@@ -1,8 +1,15 @@
-// barrow-cli plan --a A.csv --b B.csv [--cost w1|w2] --out plan.csv   (--out - : standard output)
+// barrow-cli plan --a A.csv --b B.csv [--cost w1|w2] --out plan.csv [--potentials P.csv]   (--out - : standard output)
 // Writes the exact optimal transport plan, one nonzero per line:
 //   i,j,mass,ax,ay,bx,by,cost
 // with i, j the 0-based data rows of A and B, mass under the normalised weights (summing to
 // 1) and cost = c(x_i, y_j) (|x-y| for w1, |x-y|^2 for w2). Prints a one-line summary.
+// --potentials writes the optimality certificate, the dual potentials of that cost:
+//   side,index,potential
+// one line per data row of A (side A) and then of B (side B), index 0-based as in the plan.
+// They satisfy u_i + v_j <= c_ij for every pair, with equality on the plan's support, and
+// sum_i a_i u_i + sum_j b_j v_j = the optimal cost (up to rounding). They are unique only up to
+// adding a constant to u and subtracting it from v (more freedom when the problem is
+// degenerate). The cost is stated on stdout; the file holds exactly those three columns.
 #include <cstdio>
 #include <string>
 
@@ -16,11 +23,13 @@
 namespace barrow::cli {
 
 int runPlan(const std::vector<std::string>& argv) {
-  const CliArgs args("plan", argv, {"a", "b", "cost", "out"}, {});
+  const CliArgs args("plan", argv, {"a", "b", "cost", "out", "potentials"}, {});
   const std::string costName = args.value("cost").value_or("w1");
   if (costName != "w1" && costName != "w2") throw InputError{"--cost must be w1 or w2, not '" + costName + "'"};
   const std::string out = args.required("out");
   checkWritable(out, "out");
+  const auto potentials = args.value("potentials");
+  if (potentials) checkWritable(*potentials, "potentials");
   const Cloud a = loadCloud(args.required("a"));
   const Cloud b = loadCloud(args.required("b"));
 
@@ -42,9 +51,21 @@ int runPlan(const std::vector<std::string>& argv) {
   }
   if (out == "-") std::fwrite(csv.data(), 1, csv.size(), stdout);
   else if (auto e = atomicWriteFile(out, csv)) throw InputError{*e};
+  if (potentials) {
+    if (r.u.size() != a.size() || r.v.size() != b.size())
+      throw InternalError{costName + " returned no dual potentials for every row"};
+    std::string p = "side,index,potential\n";
+    for (Eigen::Index i = 0; i < r.u.size(); ++i) p += "A," + std::to_string(i) + "," + formatNumber(r.u(i)) + "\n";
+    for (Eigen::Index j = 0; j < r.v.size(); ++j) p += "B," + std::to_string(j) + "," + formatNumber(r.v(j)) + "\n";
+    if (auto e = atomicWriteFile(*potentials, p)) throw InputError{*e};
+  }
   std::fprintf(out == "-" ? stderr : stdout, "%s = %s  nonzeros = %zu  marginal error = %.1e  (%.1f ms)  -> %s\n", costName.c_str(),
               formatNumber(r.value).c_str(), r.plan.size(), r.details.value("marginal_error", 0.0), r.seconds * 1e3,
               out.c_str());
+  if (potentials)
+    std::fprintf(out == "-" ? stderr : stdout, "dual potentials of the cost c(x, y) = %s (u on A, v on B; u_i + v_j <= c_ij, equality on the "
+                 "plan) -> %s\n",
+                 cost.label().c_str(), potentials->c_str());
   return kExitOk;
 }
 

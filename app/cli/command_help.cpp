@@ -83,7 +83,7 @@ false when there is a jump or an unresolved suspect.
 
 )") + kFindingsRule + "\n" + kSweepOptions;
   if (command == "plan")
-    return R"(barrow-cli plan --a A --b B [--cost w1|w2] --out plan.csv
+    return R"(barrow-cli plan --a A --b B [--cost w1|w2] --out plan.csv [--potentials P.csv]
 
 Solves exact optimal transport (network simplex) and writes the plan, one nonzero per line:
   i,j,mass,ax,ay,bx,by,cost
@@ -91,6 +91,12 @@ i, j: 0-based data rows of A and B; mass under the normalised weights (sums to 1
 cost = |x_i - y_j| (w1, the default) or |x_i - y_j|^2 (w2).
 --out - writes the CSV to standard output (the summary then goes to standard error).
 The output file is checked for writability before the solve.
+--potentials P.csv writes the dual potentials, the optimality certificate, with the header
+  side,index,potential
+side A or B, index the 0-based data row. They belong to the cost above (|x-y|^2 for w2, not
+W2 itself): u_i + v_j <= c_ij for every pair, with equality on the plan, and
+sum_i a_i u_i + sum_j b_j v_j = the optimal cost. They are unique only up to u + t, v - t
+(more freedom when the problem is degenerate). The summary names the cost.
 )";
   return "";
 }

@@ -15,7 +15,7 @@ const char* kUsage = R"(barrow-cli — measure distances between two weighted 2-
 
 usage:
   barrow-cli measure  --a A.csv --b B.csv [--measures w1,w2,...] [--set key=value ...] [--json]
-  barrow-cli plan     --a A.csv --b B.csv [--cost w1|w2] --out plan.csv
+  barrow-cli plan     --a A.csv --b B.csv [--cost w1|w2] --out plan.csv [--potentials P.csv]
   barrow-cli sweep    --a A.csv --b B.csv --family shift|rotate|scale|interpolate|mix
                       [--direction dx,dy] [--from F --to T --steps N] [--measures ...] --out sweep.csv
                       [--center x,y] [--reference R] [--set key=value ...] [--threads N]
@@ -25,6 +25,9 @@ usage:
   barrow-cli --help | --version | COMMAND --help
 
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
+plan --potentials writes side,index,potential (side A or B, index = 0-based data row): the dual
+  potentials of the plan's cost, |x-y| for w1 and |x-y|^2 for w2 (not its root): u_i + v_j <= c_ij
+  for every pair, equal on the plan, sum a_i u_i + sum b_j v_j = the optimal cost.
 Parameters: --set group.key=value, e.g. --set sinkhorn.epsilon=0.01 --set density.bin=0.25
 Measures: w1 w2 entropic sinkhorn sliced mmd energy frechet chamfer hausdorff
           kl_ab kl_ba js tv hellinger   (formulas and parameters: barrow-cli measure --help)

@@ -34,7 +34,7 @@ Result histogramEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, co
   }
   grid.origin = s.origin ? *s.origin : autoOrigin(*stats, grid.bin);
   d["origin"] = {grid.origin.x(), grid.origin.y()};
-  d["origin_rule"] = s.origin ? "given" : "auto: pooled minimum rounded down to a multiple of the bin";
+  d["origin_rule"] = s.origin ? "given" : "auto: the pooled minimum per axis";
 
   const BinnedMasses bins = binMasses(a, b, grid);
   if (!bins.error.empty()) return Result::invalid(bins.error);

@@ -15,7 +15,8 @@ double autoBinWidth(const PooledStats& s) {
 }
 
 Eigen::Vector2d autoOrigin(const PooledStats& s, double bin) {
-  return {std::floor(s.min.x() / bin) * bin, std::floor(s.min.y() / bin) * bin};
+  (void)bin;  // the grid hangs from the data, not from multiples of the bin counted from 0
+  return s.min;
 }
 
 namespace {

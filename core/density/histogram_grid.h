@@ -21,7 +21,11 @@ struct HistogramGrid {
 /// of the two per-axis sds of the pooled sample (one square bin, and never 0 for a segment)
 /// and N its effective size. Falls back to 1 when every point coincides (σ = 0).
 double autoBinWidth(const PooledStats& s);
-/// The pooled minimum rounded down, per axis, to a multiple of `bin`.
+/// The pooled minimum per axis (over points of positive weight): the lowest bin's lower edge
+/// passes through the lowest point. Derived from the data alone, so shifting both clouds by
+/// t shifts the grid by t and leaves every bin's contents unchanged [D]. (Rounding the
+/// minimum to a multiple of the bin, counted from 0, made the answer depend on where the
+/// data sit.) `bin` is unused; kept so callers state which grid the origin belongs to.
 Eigen::Vector2d autoOrigin(const PooledStats& s, double bin);
 
 /// The masses of A (p) and B (q) in every bin that holds mass of either, in the same order.

@@ -54,8 +54,9 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
   const KdePairGrid pair = evaluateKdePair(a, b, bw.s, opt, exact, ctx.control);
   bool cancelled = pair.cancelled;
   KdeIntegral in;
+  KdeTvStats tv;
   if (!cancelled)
-    in = kind == DivergenceKind::Tv ? kdeTotalVariation(a, b, pair, opt.window, ctx.control, &cancelled)
+    in = kind == DivergenceKind::Tv ? kdeTotalVariation(a, b, pair, opt.window, ctx.control, &cancelled, &tv)
                                     : integrateKdeDivergence(pair, kind);
   if (cancelled) {
     Result r;
@@ -70,9 +71,17 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
   d["grid_origin"] = {g.x.start, g.y.start};
   d["nodes_per_bandwidth"] = g.nodesPerBandwidth;
   d["integration"] = kind == DivergenceKind::Tv
-                         ? "x exact between the crossings of f_A and f_B, rectangle rule over rows in y; "
-                           "error = |I(h) - I(2h)| + outside-mass tail"
-                         : "rectangle rule on the grid nodes; error = |I(h) - I(2h)| + outside-mass tail";
+                         ? "x exact between the crossings of f_A and f_B (Newton-refined), y by adaptive "
+                           "Gauss-Kronrod 7/15; error estimate = sum |K15 - G7| over the panels + outside-mass "
+                           "tail (an estimate)"
+                         : "rectangle rule on the grid nodes; error estimate (not a bound) = |I(h) - I(2h)| + "
+                           "outside-mass tail";
+  if (kind == DivergenceKind::Tv) {
+    d["tv_panels"] = tv.panels;
+    d["tv_rows"] = tv.rows;
+    d["tv_hidden_crossing_pairs"] = tv.hiddenPairs;
+    if (tv.panelLimitHit) d["tv_panel_limit_hit"] = true;
+  }
   d["error_estimate"] = in.errorEstimate;
   d["coarse_value"] = in.coarseValue;
   d["mass_on_grid"] = {in.massA, in.massB};

@@ -9,14 +9,23 @@ namespace barrow {
 
 namespace {
 
-// Inverse of the weighted empirical CDF: the smallest x whose cumulative weight reaches u.
+// Linear-interpolation quantile of a weighted sample sorted by value (pooled_stats.h).
 double weightedQuantile(const std::vector<std::pair<double, double>>& sorted, double u) {
-  double cum = 0.0;
-  for (const auto& [x, w] : sorted) {
-    cum += w;
-    if (cum >= u) return x;
+  const std::size_t n = sorted.size();
+  if (n == 1) return sorted.front().first;
+  std::vector<double> mid(n);  // centre of each point's share of the cumulative weight
+  double total = 0.0;
+  for (std::size_t k = 0; k < n; ++k) {
+    mid[k] = total + 0.5 * sorted[k].second;
+    total += sorted[k].second;
   }
-  return sorted.back().first;
+  const double target = mid.front() + u * (mid.back() - mid.front());
+  if (!(target > mid.front())) return sorted.front().first;
+  if (!(target < mid.back())) return sorted.back().first;
+  const std::size_t hi = std::size_t(std::upper_bound(mid.begin(), mid.end(), target) - mid.begin());
+  const std::size_t lo = hi - 1;
+  const double t = (target - mid[lo]) / (mid[hi] - mid[lo]);
+  return sorted[lo].first + t * (sorted[hi].first - sorted[lo].first);
 }
 
 }  // namespace

@@ -19,6 +19,10 @@ std::vector<ParamSpec> ChamferMeasure::params() const {
   return {squared};
 }
 
+std::string ChamferMeasure::unit(const ParamSet& resolved) const {
+  return resolved.has(kSquared) && resolved.boolean(kSquared) ? lengthPower(2) : kUnitLength;
+}
+
 Result ChamferMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   const SupportPoints sa = supportOf(a), sb = supportOf(b);
   const bool squared = ctx.params.boolean(kSquared);

@@ -9,6 +9,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -20,6 +21,11 @@ class ChamferMeasure : public Measure {
     return "sum_i a_i min_j |x_i-y_j| + sum_j b_j min_i |x_i-y_j| (squared distances if chamfer.squared)";
   }
   std::vector<ParamSpec> params() const override;
+  /// "length", or "length^2" with chamfer.squared = true.
+  std::string unit(const ParamSet& resolved) const override;
+  std::string unitRule() const override {
+    return "length: a weighted mean of distances (length^2 with chamfer.squared = true: of squared distances)";
+  }
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
   /// Almost everywhere (nearest neighbours unique and, unsquared, at positive distance), through
   /// the nearest-neighbour assignment: x_i gets a_i g(x_i - y_nn(i)) plus b_j g(x_i - y_j) for

@@ -1,4 +1,4 @@
-// The sample-based f-divergences kl_ab, kl_ba, js, tv, hellinger (DESIGN.md), in nats, each
+// The sample-based f-divergences kl_ab, kl_ba, js, tv, hellinger (DESIGN.md; KL and JS in nats), each
 // estimated from the two clouds by a histogram, a Gaussian KDE or (KL only) k nearest
 // neighbours. They share one parameter group, density.* (density/density_settings.h).
 #pragma once
@@ -7,6 +7,7 @@
 
 #include "density/divergence_kind.h"
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -21,6 +22,9 @@ class DensityMeasure : public Measure {
   std::string displayName() const override;
   std::string formula() const override;
   std::vector<ParamSpec> params() const override { return densityParamSpecs(); }
+  /// nats (KL, JS), probability (TV), dimensionless (Hellinger), whatever the estimator.
+  std::string unit(const ParamSet& resolved) const override;
+  std::string unitRule() const override;
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
   /// Freezes the "auto" bin and origin and the bandwidth rule at (a, b).
   ParamSet freeze(const Cloud& a, const Cloud& b, const ParamSet& resolved) const override;

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "measures/measure.h"
+#include "measures/units.h"
 #include "transport/sinkhorn_solver.h"
 
 namespace barrow {
@@ -30,6 +31,15 @@ EntropicSettings readEntropicSettings(const std::string& group, const ParamSet& 
                                       const Cloud& b);
 /// "auto" replaced by its number on (a, b), for sweeps.
 ParamSet freezeEntropic(const std::string& group, const Cloud& a, const Cloud& b, const ParamSet& resolved);
+/// length^p for the ground cost |x-y|^p of <group>.p: <P,C> is in cost units and so is
+/// eps·KL (eps is absolute, in cost units; KL is a pure number).
+inline std::string entropicUnit(const std::string& group, const ParamSet& resolved) {
+  return lengthPower(resolved.has(group + ".p") ? resolved.integer(group + ".p") : 2);
+}
+inline constexpr const char* kEntropicUnitRule =
+    "length^p with p = <group>.p (length^2 by default): <P,C> is in cost units, |x-y|^p, and so "
+    "is eps*KL (eps absolute, in cost units; KL a pure number)";
+
 /// Details every entropic result carries: ε (absolute and relative to D^p), p, tolerance...
 nlohmann::json entropicDetails(const EntropicSettings& s);
 /// Adds a solve's diagnostics under `prefix` (e.g. "" or "ab_").
@@ -41,6 +51,8 @@ class EntropicMeasure : public Measure {
   std::string displayName() const override { return "Entropic OT cost"; }
   std::string formula() const override { return "OT_eps = min_P <P,C> + eps*KL(P | a x b), C = |x-y|^p"; }
   std::vector<ParamSpec> params() const override { return entropicParamSpecs("entropic"); }
+  std::string unit(const ParamSet& resolved) const override { return entropicUnit("entropic", resolved); }
+  std::string unitRule() const override { return kEntropicUnitRule; }
   bool cheap() const override { return false; }
 
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;

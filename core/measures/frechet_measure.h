@@ -9,6 +9,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -18,6 +19,10 @@ class FrechetMeasure : public Measure {
   std::string displayName() const override { return "Fréchet (Gaussian W2)"; }
   std::string formula() const override {
     return "sqrt(|mA-mB|^2 + tr(SA + SB - 2 (SB^1/2 SA SB^1/2)^1/2)), weighted moments, ddof = 0";
+  }
+  std::string unit(const ParamSet&) const override { return kUnitLength; }
+  std::string unitRule() const override {
+    return "length: the square root of |mA-mB|^2 + a trace of covariances, both in length^2";
   }
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
   /// Closed form (both covariances nonsingular, value > 0):

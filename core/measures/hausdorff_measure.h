@@ -5,6 +5,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -13,6 +14,8 @@ class HausdorffMeasure : public Measure {
   std::string id() const override { return "hausdorff"; }
   std::string displayName() const override { return "Hausdorff distance"; }
   std::string formula() const override { return "max(max_i min_j |x_i-y_j|, max_j min_i |x_i-y_j|)"; }
+  std::string unit(const ParamSet&) const override { return kUnitLength; }
+  std::string unitRule() const override { return "length: a distance between two points"; }
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
   /// Almost everywhere: only the A point of the attaining pair moves the value, with gradient
   /// (x - y)/|x - y|. nullopt when the value is 0.

@@ -42,6 +42,14 @@ class Measure {
   virtual std::string formula() const = 0;      // one line of plain text
   /// Parameter specs with full keys (groups may be shared, e.g. density.*).
   virtual std::vector<ParamSpec> params() const { return {}; }
+  /// Unit of the value under resolved parameters: "length", "length^2", "nats", ...
+  /// (measures/units.h). Every measure states it; the empty default fails the registry test.
+  virtual std::string unit(const ParamSet& resolved) const {
+    (void)resolved;
+    return {};
+  }
+  /// One line deriving the unit from the definition (shown by --help).
+  virtual std::string unitRule() const { return {}; }
   /// True when the value is known to be cheap to recompute (for live updates while dragging).
   virtual bool cheap() const { return true; }
 

@@ -77,8 +77,10 @@ std::vector<ParamSpec> MmdMeasure::params() const {
   sigma.minExclusive = true;
   sigma.choices = {"median"};
   sigma.unit = "coordinate units";
-  sigma.help = "Gaussian kernel bandwidth sigma in exp(-|x-y|^2/(2 sigma^2)); 'median' = median pairwise "
-               "distance of the pooled points of A and B (fixed once per sweep)";
+  sigma.help = "Gaussian kernel bandwidth sigma in exp(-|x-y|^2/(2 sigma^2)); 'median' = the median "
+               "Euclidean distance over the pooled points of A and B of positive weight, unweighted, each "
+               "unordered pair once, no pair of a point with itself (even count: mean of the two middle "
+               "values, as numpy.median); fixed once per sweep";
   ParamSpec estimator;
   estimator.key = kEstimator;
   estimator.kind = ParamKind::Choice;

@@ -14,6 +14,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -23,6 +24,11 @@ class MmdMeasure : public Measure {
   std::string displayName() const override { return "MMD (Gaussian kernel)"; }
   std::string formula() const override;
   std::vector<ParamSpec> params() const override;
+  std::string unit(const ParamSet&) const override { return kUnitDimensionless; }
+  std::string unitRule() const override {
+    return "dimensionless: kernel values exp(-|x-y|^2/(2 sigma^2)) are pure numbers (sigma carries "
+           "the length), so is MMD^2 and its square root; both estimators";
+  }
   bool cheap() const override { return false; }
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
   ParamSet freeze(const Cloud& a, const Cloud& b, const ParamSet& resolved) const override;

@@ -7,6 +7,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/entropic_measure.h"
 
 namespace barrow {
 
@@ -18,6 +19,8 @@ class SinkhornMeasure : public Measure {
     return "S_eps = OT_eps(a,b) - OT_eps(a,a)/2 - OT_eps(b,b)/2, C = |x-y|^p";
   }
   std::vector<ParamSpec> params() const override;
+  std::string unit(const ParamSet& resolved) const override { return entropicUnit("sinkhorn", resolved); }
+  std::string unitRule() const override { return kEntropicUnitRule; }
   bool cheap() const override { return false; }
 
   /// Result::u, v are the debiased potentials f_ab − f_aa and g_ab − g_bb (the first

@@ -9,6 +9,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -20,6 +21,10 @@ class SlicedMeasure : public Measure {
     return "SW_p = (mean over K directions of W_p^p of the projections)^(1/p), angles (k+1/2)pi/K";
   }
   std::vector<ParamSpec> params() const override;
+  std::string unit(const ParamSet&) const override { return kUnitLength; }
+  std::string unitRule() const override {
+    return "length for p = 1 and 2: the p-th root of a mean of 1-D W_p^p, each in length^p";
+  }
 
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
   /// From the 1-D monotone couplings (envelope theorem per direction): for p = 2,

@@ -7,6 +7,7 @@
 #pragma once
 
 #include "measures/measure.h"
+#include "measures/units.h"
 
 namespace barrow {
 
@@ -18,6 +19,10 @@ class WassersteinMeasure : public Measure {
   std::string id() const override { return p_ == 1 ? "w1" : "w2"; }
   std::string displayName() const override;
   std::string formula() const override;
+  std::string unit(const ParamSet&) const override { return kUnitLength; }
+  std::string unitRule() const override {
+    return "length: (min sum pi_ij |x_i-y_j|^p)^(1/p) is the p-th root of a cost in length^p";
+  }
   /// Exact but warm-started: re-solving after a point moves takes milliseconds for clouds of
   /// a few thousand points.
   bool cheap() const override { return true; }

@@ -80,7 +80,8 @@ void readSetting(SweepResult& r, std::map<std::string, std::string>& perMeasure,
   else if (key == "refine_budget_hit") r.refineBudgetHit = v == "true";
   else if (key == "refine_budget") r.refineBudget = int(settingNumber(key, v, line));
   else if (key.rfind("frozen.", 0) == 0 || key.rfind("rules.", 0) == 0 || key.rfind("gradient.", 0) == 0 ||
-           key.rfind("accuracy.", 0) == 0)
+           key.rfind("accuracy.", 0) == 0 ||
+           key.rfind("unit.", 0) == 0)
     perMeasure[key] = v;
 }
 
@@ -92,6 +93,7 @@ std::string formatSweepCsv(const SweepResult& r) {
   std::vector<std::string> ids;
   for (const auto& ser : r.series) ids.push_back(ser.id);
   o << "# barrow sweep, version 1: D(A_θ, B) per measure, then dD/dθ (d_<id>)\n";
+  o << "# unit.<id> is the unit of column <id>; d_<id> is in that unit per unit of θ\n";
   o << "# family=" << s.family << "\n";
   // The direction as used: normalised to unit length (only the shift family reads it).
   const double norm = std::hypot(s.direction[0], s.direction[1]);
@@ -116,6 +118,7 @@ std::string formatSweepCsv(const SweepResult& r) {
     o << "# rules." << ser.id << "=" << joined(kv, ' ') << "\n";
     o << "# gradient." << ser.id << "=" << ser.gradientMethod << "\n";
     o << "# accuracy." << ser.id << "=" << cell(ser.accuracy) << "\n";
+    o << "# unit." << ser.id << "=" << ser.unit << "\n";
   }
   o << "theta";
   for (const auto& id : ids) o << "," << id;
@@ -208,6 +211,7 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
     if (auto it = perMeasure.find("gradient." + s.id); it != perMeasure.end()) s.gradientMethod = it->second;
     if (auto it = perMeasure.find("accuracy." + s.id); it != perMeasure.end())
       if (auto v = parseNumber(it->second); v && *v >= 0 && std::isfinite(*v)) s.accuracy = *v;
+    if (auto it = perMeasure.find("unit." + s.id); it != perMeasure.end()) s.unit = it->second;
     for (auto [prefix, set] : {std::pair{"frozen.", &s.frozen}, std::pair{"rules.", &s.rules}})
       if (auto it = perMeasure.find(prefix + s.id); it != perMeasure.end()) {
         std::istringstream kv(it->second);

@@ -1,5 +1,5 @@
 // A sweep as CSV: `#` comment lines recording every setting (family, range, steps, reference,
-// frozen parameters, seed, threads, refinement), then the header
+// frozen parameters, seed, threads, refinement, each column's unit as `# unit.<id>=length`), then the header
 //   theta,<id>,...,d_<id>,...
 // (values, then dD/dθ) and one row per θ in increasing order. A non-finite value is written
 // `inf`; a failed one is left empty (its slope too). Common tools read it with comment='#'

@@ -12,6 +12,7 @@
 
 #include "families/family_map.h"
 #include "measures/registry.h"
+#include "measures/units.h"
 #include "sweep/finite_slope.h"
 #include "sweep/sweep_job.h"
 
@@ -182,6 +183,7 @@ SweepSeries assembleSeries(const SweepJob& job, std::size_t j, const std::vector
   ser.rules = job.rules();
   ser.details = job.referenceDetails();
   ser.gradientMethod = job.analytic() ? "analytic" : "finite-difference";
+  ser.unit = measureUnit(job.measure(), job.frozen());
   for (const Row* r : order) {
     const SweepCell& c = r->cells[j];
     ser.value.push_back(c.value);

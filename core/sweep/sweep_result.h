@@ -20,6 +20,7 @@ struct SweepSeries {
   std::vector<double> seconds;        // compute time per θ
   std::vector<bool> oneSided;         // true where the exact plan is not unique (slope one-sided)
   std::string gradientMethod;         // "analytic" or "finite-difference"
+  std::string unit;                   // of the value (measures/units.h); the slope's is unit per θ unit
   ParamSet frozen;                    // the settings used at every θ (frozen at the reference)
   ParamSet rules;                     // the data-dependent settings freezing replaced, as given
   nlohmann::json details = nlohmann::json::object();  // estimator settings etc. at the reference
