@@ -22,6 +22,15 @@ std::string local(const QString& p) { return QDir::toNativeSeparators(p).toStdSt
 SessionFiles::SessionFiles(SessionDocument* doc, std::function<nlohmann::json()> viewOptions, QObject* parent)
     : QObject(parent), doc_(doc), viewOptions_(std::move(viewOptions)) {
   connect(&autosave_, &QTimer::timeout, this, &SessionFiles::autosaveNow);
+  editAutosave_.setSingleShot(true);
+  editAutosave_.setInterval(kEditAutosaveMs);
+  connect(&editAutosave_, &QTimer::timeout, this, &SessionFiles::autosaveNow);
+  auto edited = [this] {
+    if (autosave_.isActive()) editAutosave_.start();  // only where autosave is on (not in screenshots)
+  };
+  connect(doc_, &SessionDocument::cloudsChanged, this, edited);
+  connect(doc_, &SessionDocument::paramsChanged, this, edited);
+  connect(doc_, &SessionDocument::sweepChanged, this, edited);
 }
 
 bool SessionFiles::isSessionFile(const QString& path) {
@@ -51,7 +60,7 @@ QString SessionFiles::openSession(const QString& path) {
 }
 
 QString SessionFiles::save(const QString& path) {
-  if (auto e = writeSession(local(path), sessionForDisk())) return QString::fromStdString(*e);
+  if (auto e = writeSession(local(path), sessionForDisk(), saveFault_)) return QString::fromStdString(*e);
   doc_->setPath(path);
   doc_->markSaved();
   addRecent(path);

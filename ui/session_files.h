@@ -35,13 +35,18 @@ class SessionFiles : public QObject {
   void addRecent(const QString& path);
   void clearRecent();
 
-  /// Recovery file: written every `intervalMs` while there are unsaved changes.
+  /// Recovery file: written every `intervalMs` while there are unsaved changes, and
+  /// kEditAutosaveMs after each edit of the clouds, settings or sweep (a burst of edits, as
+  /// in a drag, gives one write). Always atomic: a crash leaves the previous autosave.
   void startAutosave(int intervalMs);
+  static constexpr int kEditAutosaveMs = 500;
   void autosaveNow();
   QString recoveryPath() const;
   /// The recovery file's session, if one was left by a run that did not close cleanly.
   std::optional<Session> pendingRecovery(QString* error) const;
   void discardRecovery();
+  /// Test hook: saves (not autosaves) fail as this fault says (nullptr: none).
+  void setSaveFault(const WriteFault* fault) { saveFault_ = fault; }
 
  signals:
   void recentChanged();
@@ -53,6 +58,8 @@ class SessionFiles : public QObject {
   SessionDocument* doc_;
   std::function<nlohmann::json()> viewOptions_;
   QTimer autosave_;
+  QTimer editAutosave_;  // single shot, restarted by each edit
+  const WriteFault* saveFault_ = nullptr;
 };
 
 }  // namespace barrow::ui

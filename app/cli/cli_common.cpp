@@ -51,7 +51,10 @@ ParamSet parseSets(const CliArgs& args) {
   for (const auto& s : args.sets()) {
     if (auto e = set.assign(s)) throw InputError{"--set: " + *e};
   }
-  for (const auto& [key, value] : set.values()) {
+  for (const auto& entry : set.values()) {
+    // Plain references, not a structured binding: clang before 16 cannot capture one in a lambda.
+    const std::string& key = entry.first;
+    const std::string& value = entry.second;
     const auto it = std::find_if(specs.begin(), specs.end(), [&](const ParamSpec& p) { return p.key == key; });
     if (it == specs.end()) throw InputError{"--set: unknown parameter '" + key + "'"};
     if (auto e = checkParam(*it, value)) throw InputError{"--set: " + *e};

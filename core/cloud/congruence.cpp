@@ -43,8 +43,9 @@ bool rigidlyMoved(const Eigen::MatrixX2d& ref, const Eigen::MatrixX2d& moved, bo
 }
 
 bool rigidlyCongruent(const Cloud& ref, const Cloud& moved, double relTol) {
-  // Weights compared exactly: a self term depends on every one of them.
-  return ref.weights == moved.weights && rigidlyMoved(ref.points, moved.points, true, relTol);
+  // Weights compared exactly: a self term depends on every one of them. Sizes first: Eigen's
+  // == on vectors of different sizes is an assertion failure (Debug) or a wrong read.
+  return ref.weights.size() == moved.weights.size() && ref.weights == moved.weights && rigidlyMoved(ref.points, moved.points, true, relTol);
 }
 
 }  // namespace barrow

@@ -9,7 +9,8 @@
 namespace barrow {
 
 double autoBinWidth(const PooledStats& s) {
-  const double sigma = std::sqrt(0.5 * s.sd.squaredNorm());
+  // rms of the two sd's; hypot so that sd near 1e200 does not overflow in the square.
+  const double sigma = std::hypot(s.sd.x(), s.sd.y()) * std::sqrt(0.5);
   if (!(sigma > 0)) return 1.0;
   return 3.504 * sigma * std::pow(s.effectiveSize, -0.25);
 }

@@ -49,9 +49,26 @@ PooledStats pooledStats(const Cloud& a, const Cloud& b) {
     mean += w * p;
     sumW2 += w * w;
   }
-  Eigen::Vector2d var = Eigen::Vector2d::Zero();
-  for (const auto& [p, w] : pts) var += w * (p - mean).cwiseAbs2();
-  s.sd = var.cwiseSqrt();
+  // The weights sum to 1 only up to rounding, so the mean of coincident points can miss
+  // their common value by an ulp (giving sd 4e-16 instead of 0, and a different answer at
+  // each optimisation level); it lies within [min, max] by definition.
+  mean = mean.cwiseMax(s.min).cwiseMin(s.max);
+  // Deviations divided by a power of two near the spread before squaring, so that
+  // coordinates near 1e±200 neither overflow nor underflow in the square.
+  for (int axis = 0; axis < 2; ++axis) {
+    const double spread = s.max(axis) - s.min(axis);
+    if (!(spread > 0)) {
+      s.sd(axis) = 0.0;  // every point on one line x = const (or one location)
+      continue;
+    }
+    const double unit = std::ldexp(1.0, std::ilogb(spread));
+    double var = 0.0;
+    for (const auto& [p, w] : pts) {
+      const double d = (p(axis) - mean(axis)) / unit;
+      var += w * d * d;
+    }
+    s.sd(axis) = std::sqrt(var) * unit;
+  }
   s.effectiveSize = 1.0 / sumW2;
   for (int axis = 0; axis < 2; ++axis) {
     std::vector<std::pair<double, double>> col;

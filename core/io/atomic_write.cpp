@@ -64,9 +64,21 @@ std::optional<std::string> readWholeFile(const std::string& path, std::string* e
     if (error) *error = std::strerror(errno);
     return std::nullopt;
   }
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
+  // One buffer of the file's size (a stringstream would hold the content twice).
+  in.seekg(0, std::ios::end);
+  const std::streamoff size = in.tellg();
+  in.seekg(0, std::ios::beg);
+  if (size < 0) {  // not seekable (a pipe): read it as a stream
+    std::ostringstream s;
+    s << in.rdbuf();
+    return s.str();
+  }
+  std::string out(std::size_t(size), '\0');
+  if (!in.read(out.data(), size)) {
+    if (error) *error = "read failed";
+    return std::nullopt;
+  }
+  return out;
 }
 
 }  // namespace barrow

@@ -4,6 +4,7 @@
 #include <cctype>
 #include <cmath>
 #include <cstdio>
+#include <string_view>
 #include <vector>
 
 #include "io/atomic_write.h"
@@ -13,9 +14,9 @@ namespace barrow {
 
 namespace {
 
-std::string trim(const std::string& s) {
+std::string_view trim(std::string_view s) {
   const auto b = s.find_first_not_of(" \t\r");
-  if (b == std::string::npos) return "";
+  if (b == std::string_view::npos) return {};
   const auto e = s.find_last_not_of(" \t\r");
   return s.substr(b, e - b + 1);
 }
@@ -25,14 +26,23 @@ std::string lower(std::string s) {
   return s;
 }
 
-char detectDelimiter(const std::string& line) {
+char detectDelimiter(std::string_view line) {
   for (char d : {',', ';', '\t'})
-    if (line.find(d) != std::string::npos) return d;
+    if (line.find(d) != std::string_view::npos) return d;
   return ' ';
 }
 
-std::vector<std::string> splitFields(const std::string& line, char delim) {
-  std::vector<std::string> out;
+// Fields of one line, as views into it. Stops after `maxFields` + 1 fields so that a line of
+// millions of fields costs no more than a short one; `count` still gets the true number of
+// fields (counted without storing them) for the message.
+std::vector<std::string_view> splitFields(std::string_view line, char delim, std::size_t maxFields,
+                                          std::size_t* count) {
+  std::vector<std::string_view> out;
+  std::size_t n = 0;
+  auto keep = [&](std::string_view f) {
+    if (out.size() <= maxFields) out.push_back(f);
+    ++n;
+  };
   if (delim == ' ') {
     std::size_t i = 0;
     while (i < line.size()) {
@@ -40,19 +50,40 @@ std::vector<std::string> splitFields(const std::string& line, char delim) {
       if (i >= line.size()) break;
       std::size_t j = i;
       while (j < line.size() && line[j] != ' ' && line[j] != '\t') ++j;
-      out.push_back(line.substr(i, j - i));
+      keep(line.substr(i, j - i));
       i = j;
     }
-    return out;
+  } else {
+    std::size_t start = 0;
+    while (true) {
+      const auto k = line.find(delim, start);
+      keep(trim(line.substr(start, k == std::string_view::npos ? std::string_view::npos : k - start)));
+      if (k == std::string_view::npos) break;
+      start = k + 1;
+    }
   }
-  std::size_t start = 0;
-  while (true) {
-    const auto k = line.find(delim, start);
-    out.push_back(trim(line.substr(start, k == std::string::npos ? std::string::npos : k - start)));
-    if (k == std::string::npos) break;
-    start = k + 1;
-  }
+  *count = n;
   return out;
+}
+
+// A field shown in a message: at most 40 characters, so a 100 MB field is not echoed back.
+std::string shown(std::string_view f) {
+  if (f.size() <= 40) return std::string(f);
+  return std::string(f.substr(0, 37)) + "... (" + std::to_string(f.size()) + " characters)";
+}
+
+std::string quoted(std::string_view f) {
+  if (f.size() <= 40) return "'" + std::string(f) + "'";
+  return "'" + std::string(f.substr(0, 37)) + "...' (" + std::to_string(f.size()) + " characters)";
+}
+
+// Longer than any number a person or a program writes (17 significant digits, an exponent,
+// some leading zeros); refusing it keeps the parse of a huge field cheap.
+constexpr std::size_t kMaxNumberText = 400;
+
+std::optional<double> fieldNumber(std::string_view f) {
+  if (f.size() > kMaxNumberText) return std::nullopt;
+  return parseNumber(std::string(f));
 }
 
 const char* kColumnNames[3] = {"x", "y", "w"};
@@ -70,8 +101,8 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
   auto fail = [&](int line, std::string why) {
     return Loaded<Cloud>::fail(LoadError{file, line, "", std::move(why)});
   };
-  std::string text = textIn;
-  if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.erase(0, 3);  // UTF-8 byte-order mark
+  std::string_view text = textIn;
+  if (text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);  // UTF-8 byte-order mark
 
   char delim = 0;
   int columns = 0;           // 2 or 3 once known
@@ -84,70 +115,74 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
   int lineNo = 0;
   while (pos <= text.size()) {
     auto nl = text.find('\n', pos);
-    if (nl == std::string::npos) nl = text.size();
-    std::string raw = text.substr(pos, nl - pos);
+    if (nl == std::string_view::npos) nl = text.size();
+    std::string_view raw = text.substr(pos, nl - pos);
     pos = nl + 1;
     ++lineNo;
-    if (const auto hash = raw.find('#'); hash != std::string::npos) raw.erase(hash);
-    const std::string line = trim(raw);
+    if (const auto hash = raw.find('#'); hash != std::string_view::npos) raw = raw.substr(0, hash);
+    const std::string_view line = trim(raw);
     if (line.empty()) {
       if (nl == text.size()) break;
       continue;
     }
     if (!delim) delim = detectDelimiter(line);
-    const auto fields = splitFields(line, delim);
+    std::size_t fieldCount = 0;
+    const auto fields = splitFields(line, delim, 3, &fieldCount);
 
     // A header is a first row in which some field is not a number.
     if (headerAllowed) {
       headerAllowed = false;
       const bool anyText = std::any_of(fields.begin(), fields.end(),
-                                       [](const std::string& f) { return !parseNumber(f); });
+                                       [](std::string_view f) { return !fieldNumber(f); });
       if (anyText) {
-        if (fields.size() != 2 && fields.size() != 3)
-          return fail(lineNo, "header has " + std::to_string(fields.size()) +
+        if (fieldCount != 2 && fieldCount != 3)
+          return fail(lineNo, "header has " + std::to_string(fieldCount) +
                                   " columns; expected x,y or x,y,w");
         bool seen[3] = {false, false, false};
         for (std::size_t k = 0; k < fields.size(); ++k) {
-          const std::string name = lower(fields[k]);
+          const std::string name = lower(std::string(fields[k].substr(0, 16)));
           int role = -1;
           if (name == "x") role = 0;
           else if (name == "y") role = 1;
           else if (name == "w" || name == "weight" || name == "weights" || name == "mass") role = 2;
           if (role < 0)
-            return fail(lineNo, "header column '" + fields[k] +
-                                    "' is not recognised (expected x, y and optionally w)");
-          if (seen[role]) return fail(lineNo, "header names column '" + fields[k] + "' twice");
+            return fail(lineNo, "header column " + quoted(fields[k]) +
+                                    " is not recognised (expected x, y and optionally w)");
+          if (seen[role]) return fail(lineNo, "header names column " + quoted(fields[k]) + " twice");
           seen[role] = true;
           order[role] = int(k);
         }
         if (!seen[0] || !seen[1]) return fail(lineNo, "header must name both x and y");
-        columns = int(fields.size());
+        columns = int(fieldCount);
         columnsLine = lineNo;
         continue;
       }
     }
 
     if (columns == 0) {
-      if (fields.size() != 2 && fields.size() != 3)
-        return fail(lineNo, "found " + std::to_string(fields.size()) +
+      if (fieldCount != 2 && fieldCount != 3)
+        return fail(lineNo, "found " + std::to_string(fieldCount) +
                                 " columns; expected 2 (x,y) or 3 (x,y,w)");
-      columns = int(fields.size());
+      columns = int(fieldCount);
       columnsLine = lineNo;
-    } else if (int(fields.size()) != columns) {
-      return fail(lineNo, "found " + std::to_string(fields.size()) + " columns; expected " +
+    } else if (fieldCount != std::size_t(columns)) {
+      return fail(lineNo, "found " + std::to_string(fieldCount) + " columns; expected " +
                               std::to_string(columns) + " as on line " + std::to_string(columnsLine));
     }
 
     double v[3] = {0, 0, 1};
     for (int role = 0; role < columns; ++role) {
-      const std::string& f = fields[std::size_t(order[role])];
-      const auto num = parseNumber(f);
+      const std::string_view f = fields[std::size_t(order[role])];
+      const auto num = fieldNumber(f);
       const std::string col = std::string("column ") + std::to_string(order[role] + 1) + " (" +
                               kColumnNames[role] + ")";
-      if (!num) return fail(lineNo, col + ": '" + f + "' " + notNumberReason(f));
+      if (!num)
+        return fail(lineNo, col + ": " + quoted(f) + " " +
+                                (f.size() > kMaxNumberText ? std::string("is too long to be a number")
+                                                           : notNumberReason(std::string(f))));
       if (std::isnan(*num)) return fail(lineNo, col + ": value is NaN");
       if (std::isinf(*num)) return fail(lineNo, col + ": value is infinite");
-      if (role == 2 && *num < 0) return fail(lineNo, col + ": weight " + f + " is negative");
+      if (role == 2 && *num < 0) return fail(lineNo, col + ": weight " + shown(f) + " is negative");
       v[role] = *num;
     }
     xs.push_back(v[0]);

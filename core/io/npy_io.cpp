@@ -83,6 +83,11 @@ double readValue(const unsigned char* p, const Dtype& t) {
   return double(std::int64_t(bits << shift) >> shift);
 }
 
+// Header text quoted in a message: at most 40 characters (the header may be 64 KiB).
+std::string shortened(const std::string& v) {
+  return v.size() <= 40 ? v : v.substr(0, 37) + "...";
+}
+
 }  // namespace
 
 Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
@@ -118,12 +123,15 @@ Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
   if (!descr) return fail("descr", "missing from the header");
   const auto dtype = parseDescr(*descr);
   if (!dtype)
-    return fail("descr", "dtype '" + *descr + "' is not supported (use float32, float64 or an integer type)");
+    return fail("descr", "dtype '" + shortened(*descr) + "' is not supported (use float32, float64 or an integer type)");
   const auto fortran = dictValue(header, "fortran_order");
   if (!fortran || (*fortran != "False" && *fortran != "True"))
     return fail("fortran_order", "missing or not True/False");
   const auto shape = dictValue(header, "shape");
   if (!shape) return fail("shape", "missing from the header");
+  // dictValue returns a tuple with its parentheses; anything else ("", "5") is no shape.
+  if (shape->size() < 2 || shape->front() != '(' || shape->back() != ')')
+    return fail("shape", "'" + shortened(*shape) + "' is not a tuple such as (n, 2)");
   std::vector<long long> dims;
   {
     std::string s = shape->substr(1, shape->size() - 2);
@@ -140,20 +148,24 @@ Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
         dims.push_back(std::stoll(tok, &used));
         if (used != tok.size()) throw std::invalid_argument(tok);
       } catch (...) {
-        return fail("shape", "'" + *shape + "' is not a tuple of whole numbers");
+        return fail("shape", "'" + shortened(*shape) + "' is not a tuple of whole numbers");
       }
       p = e;
     }
   }
   if (dims.size() != 2 || (dims[1] != 2 && dims[1] != 3) || dims[0] < 0)
-    return fail("shape", "shape " + *shape + " is not (n, 2) or (n, 3)");
+    return fail("shape", "shape " + shortened(*shape) + " is not (n, 2) or (n, 3)");
   const auto n = std::size_t(dims[0]);
   const auto cols = std::size_t(dims[1]);
   if (n == 0) return fail("shape", "the array has no rows, so the cloud would be empty");
-  const std::size_t need = n * cols * std::size_t(dtype->size);
-  if (bytes.size() - offset < need)
-    return fail("data", "file truncated: " + std::to_string(need) + " data bytes expected, " +
-                            std::to_string(bytes.size() - offset) + " present");
+  // Compare the claimed row count with the rows the data part can hold before multiplying
+  // (n * cols * size wraps around for n near 2^60) and before allocating anything for n.
+  const std::size_t rowBytes = cols * std::size_t(dtype->size);
+  const std::size_t present = bytes.size() - offset;
+  if (n > present / rowBytes)
+    return fail("data", "file truncated: the shape claims " + std::to_string(n) + " rows of " +
+                            std::to_string(rowBytes) + " bytes, " + std::to_string(present) +
+                            " data bytes present");
 
   const bool isFortran = *fortran == "True";
   auto at = [&](std::size_t row, std::size_t col) {

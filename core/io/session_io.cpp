@@ -1,7 +1,9 @@
 #include "io/session_io.h"
 
 #include <algorithm>
+#include <climits>
 #include <cmath>
+#include <cstdint>
 
 namespace barrow {
 
@@ -33,6 +35,15 @@ double number(const json& v, const std::string& path) {
   const double d = v.get<double>();
   if (!std::isfinite(d)) throw FieldError{path, "not a finite number"};
   return d;
+}
+
+// A whole number that fits an int (get<int>() would wrap 2^32 + 1 around to 1).
+int wholeNumber(const json& v, const std::string& path) {
+  if (!v.is_number_integer()) throw FieldError{path, "expected a whole number"};
+  if (v.is_number_unsigned() ? v.get<std::uint64_t>() > std::uint64_t(INT_MAX)
+                             : (v.get<std::int64_t>() > INT_MAX || v.get<std::int64_t>() < INT_MIN))
+    throw FieldError{path, "whole number out of range"};
+  return int(v.get<std::int64_t>());
 }
 
 Cloud cloudFromJson(const json& j, const std::string& path) {
@@ -69,6 +80,13 @@ Cloud cloudFromJson(const json& j, const std::string& path) {
   return c;
 }
 
+// Deepest nesting of arrays/objects a session may have (the schema needs 4; the free-form
+// "view" gets the rest). Deeper files are refused while parsing, before any recursion.
+constexpr int kMaxSessionDepth = 64;
+
+// Thrown from the parser callback when the nesting limit is reached.
+struct TooDeep {};
+
 int lineOfByte(const std::string& text, std::size_t byte) {
   byte = std::min(byte, text.size());
   return 1 + int(std::count(text.begin(), text.begin() + std::ptrdiff_t(byte), '\n'));
@@ -99,20 +117,37 @@ std::string formatSession(const Session& s) {
 Loaded<Session> parseSession(const std::string& text, const std::string& file) {
   json root;
   try {
-    root = json::parse(text);
+    // The callback sees every value as it is parsed, with its depth: nesting past the limit
+    // is refused there, before a tree exists whose copy or destruction would recurse that
+    // deep (10^5 levels overflowed the stack).
+    const json::parser_callback_t limitDepth = [&](int depth, json::parse_event_t event, json&) {
+      if ((event == json::parse_event_t::object_start || event == json::parse_event_t::array_start) &&
+          depth >= kMaxSessionDepth)
+        throw TooDeep{};
+      return true;
+    };
+    root = json::parse(text, limitDepth);
+  } catch (const TooDeep&) {
+    return Loaded<Session>::fail(LoadError{
+        file, 0, "", "nested deeper than " + std::to_string(kMaxSessionDepth) + " levels"});
   } catch (const json::parse_error& e) {
     std::string why = e.what();
     if (auto p = why.find("parse error"); p != std::string::npos) why = why.substr(p);
     return Loaded<Session>::fail(LoadError{file, lineOfByte(text, e.byte), "", "not valid JSON: " + why});
+  } catch (const json::exception& e) {
+    // A number outside double's range (1e400) is an out_of_range error, not a parse_error.
+    std::string why = e.what();
+    if (auto p = why.find("] "); p != std::string::npos) why = why.substr(p + 2);
+    return Loaded<Session>::fail(LoadError{file, 0, "", "not readable JSON: " + why});
   }
   try {
     if (!root.is_object()) throw FieldError{"(top level)", "expected a JSON object"};
     const json& fmt = need(root, "format", "");
     if (fmt != "barrow-session") throw FieldError{"format", "expected \"barrow-session\""};
     const json& ver = need(root, "version", "");
-    if (!ver.is_number_integer()) throw FieldError{"version", "expected a whole number"};
-    if (ver.get<int>() > kSessionVersion || ver.get<int>() < 1)
-      throw FieldError{"version", "version " + std::to_string(ver.get<int>()) +
+    const int version = wholeNumber(ver, "version");
+    if (version > kSessionVersion || version < 1)
+      throw FieldError{"version", "version " + std::to_string(version) +
                                       " is not supported (this build reads 1 to " +
                                       std::to_string(kSessionVersion) + ")"};
     Session s;
@@ -157,8 +192,7 @@ Loaded<Session> parseSession(const std::string& text, const std::string& file) {
       if (w.contains("from")) t.from = number(w["from"], "sweep.from");
       if (w.contains("to")) t.to = number(w["to"], "sweep.to");
       if (w.contains("steps")) {
-        if (!w["steps"].is_number_integer()) throw FieldError{"sweep.steps", "expected a whole number"};
-        t.steps = w["steps"].get<int>();
+        t.steps = wholeNumber(w["steps"], "sweep.steps");
       }
       if (w.contains("reference") && !w["reference"].is_null())
         t.reference = number(w["reference"], "sweep.reference");

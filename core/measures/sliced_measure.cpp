@@ -5,6 +5,7 @@
 
 #include "transport/kernel_pass_threads.h"
 #include "transport/ot_1d.h"
+#include "measures/unit_scale.h"
 
 namespace barrow {
 
@@ -81,6 +82,12 @@ std::vector<ParamSpec> SlicedMeasure::params() const {
 }
 
 Result SlicedMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
+  // All coordinates tiny or huge: evaluate at unit scale (measures/unit_scale.h); sliced W_p
+  // is homogeneous of degree 1.
+  if (auto r = evaluateAtUnitScale(a, b, ctx, [this](const Cloud& x, const Cloud& y, const EvalContext& c) {
+        return evaluate(x, y, c);
+      }))
+    return *r;
   const SlicedSettings s = readSettings(ctx.params);
   std::vector<double> perDirection(s.directions);
   const bool done = forEachDirection(a, b, s.directions, ctx.control,

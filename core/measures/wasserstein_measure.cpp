@@ -7,6 +7,7 @@
 
 #include "transport/exact_cost.h"
 #include "transport/exact_ot.h"
+#include "measures/unit_scale.h"
 
 namespace barrow {
 
@@ -25,6 +26,12 @@ std::string WassersteinMeasure::formula() const {
 }
 
 Result WassersteinMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
+  // All coordinates tiny or huge: solve at unit scale (measures/unit_scale.h), W_p being
+  // homogeneous of degree 1. The duality gap is in cost units (length^p).
+  if (auto r = evaluateAtUnitScale(a, b, ctx, [this](const Cloud& x, const Cloud& y, const EvalContext& c) {
+        return evaluate(x, y, c);
+      }, 1.0, {{"duality_gap", p_}}))
+    return *r;
   ExactOtOptions o;
   o.p = p_;
   ExactOtResult s = solveExactOt(a, b, o, ctx.control, ctx.warm);

@@ -76,7 +76,10 @@ void KdTree::search(const Eigen::Vector2d& q, double& bound2, Visit&& visit) con
   stack[top++] = 0;
   while (top > 0) {
     const Node& nd = nodes_[std::size_t(stack[--top])];
-    if (boxDist2(nd) >= bound2) continue;
+    // At bound +inf nothing is pruned: a box whose squared distance overflowed may still
+    // hold the only candidates.
+    const double box2 = boxDist2(nd);
+    if (box2 >= bound2 && bound2 != std::numeric_limits<double>::infinity()) continue;
     if (nd.left < 0) {
       for (Eigen::Index t = nd.begin; t < nd.end; ++t) {
         const double dx = x_[std::size_t(t)] - q.x(), dy = y_[std::size_t(t)] - q.y();
@@ -99,16 +102,23 @@ void KdTree::search(const Eigen::Vector2d& q, double& bound2, Visit&& visit) con
 
 std::pair<double, Eigen::Index> KdTree::nearest(const Eigen::Vector2d& q, Eigen::Index exclude) const {
   double best2 = std::numeric_limits<double>::infinity();
-  Eigen::Index best = -1;
+  Eigen::Index best = -1, bestT = -1;
   search(q, best2, [&](double d2, Eigen::Index t) {
     const Eigen::Index i = index_[std::size_t(t)];
     if (i == exclude) return;
-    if (d2 < best2) {
+    // `best < 0`: take the first candidate even when its squared distance overflowed to
+    // +inf, so that the index is always a row (it was -1 when every square overflowed).
+    if (d2 < best2 || best < 0) {
       best2 = d2;
       best = i;
+      bestT = t;
     }
   });
-  return {std::sqrt(best2), best};
+  if (best < 0) return {std::numeric_limits<double>::infinity(), best};
+  // Where the square underflowed or overflowed, the distance itself from hypot.
+  if (best2 >= std::numeric_limits<double>::min() && best2 < std::numeric_limits<double>::infinity())
+    return {std::sqrt(best2), best};
+  return {std::hypot(x_[std::size_t(bestT)] - q.x(), y_[std::size_t(bestT)] - q.y()), best};
 }
 
 std::vector<std::pair<double, Eigen::Index>> KdTree::knn(const Eigen::Vector2d& q, int k,

@@ -1,6 +1,7 @@
 #include "spatial/nn_batch.h"
 
 #include <algorithm>
+#include <cmath>
 #include <numeric>
 #include <tuple>
 #include <optional>
@@ -90,7 +91,16 @@ NearestBatch nearestFor(const KdTree& tree, const DistinctRows& targets, const D
 
 }  // namespace
 
-MutualNearest mutualNearest(const Eigen::MatrixX2d& a, const Eigen::MatrixX2d& b, const WorkSlice& slice) {
+MutualNearest mutualNearest(const Eigen::MatrixX2d& aIn, const Eigen::MatrixX2d& bIn, const WorkSlice& slice) {
+  // The tree compares squared distances, which overflow for coordinates beyond ~1e154 and
+  // underflow to 0 below ~1e-154 (A = (0,0), B = (1e-300,0) gave distance 0). When every
+  // coordinate is that small or large, both sets are divided by one power of two that brings
+  // the largest near 1 — exact, and it keeps every comparison — and the distances are
+  // multiplied back at the end. Ordinary data (largest within 2^±60) is left as it is.
+  const double largest = std::max(aIn.cwiseAbs().maxCoeff(), bIn.cwiseAbs().maxCoeff());
+  const bool extreme = largest > 0 && std::isfinite(largest) && (largest < 0x1p-60 || largest > 0x1p60);
+  const double unit = extreme ? std::ldexp(1.0, std::ilogb(largest)) : 1.0;
+  const Eigen::MatrixX2d a = aIn / unit, b = bIn / unit;
   MutualNearest out;
   std::optional<DistinctRows> da, db;
   std::optional<KdTree> treeA, treeB;
@@ -106,6 +116,8 @@ MutualNearest mutualNearest(const Eigen::MatrixX2d& a, const Eigen::MatrixX2d& b
   out.ab = nearestFor(*treeB, *db, *da, slice.sub(0.0, na / (na + nb)));
   out.ba = out.ab.complete ? nearestFor(*treeA, *da, *db, slice.sub(na / (na + nb), 1.0)) : NearestBatch{{}, {}, false};
   out.complete = out.ab.complete && out.ba.complete;
+  for (double& d : out.ab.distance) d *= unit;
+  for (double& d : out.ba.distance) d *= unit;
   return out;
 }
 

@@ -51,6 +51,9 @@ TEST(CliContractTest, BadFilesExitTwoWithOneLineNamingFileAndReason) {
       {"truncated.npy", "truncated"},
       {"wrong_dtype.npy", "'<U8' is not supported"},
       {"huge_header.npy", "exceeds"},
+      {"npy_empty_shape.npy", "field 'shape'"},          // was an uncaught out_of_range, exit 1
+      {"npy_shape_overflow.npy", "the shape claims"},    // size product wrapped: bad_alloc, exit 1
+      {"npy_claims_1e12_rows.npy", "the shape claims 1000000000000 rows"},
       {"does_not_exist.csv", "cannot open"},
   };
   for (const auto& c : cases) {

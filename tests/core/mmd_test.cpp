@@ -205,16 +205,18 @@ TEST(MmdTest, BadInputGivesStatusAndMessage) {
   EXPECT_EQ(runMmd(b, b, {"mmd.sigma=1"}, &ctl).status, Status::Cancelled);
 }
 
-// [D] squared distances overflow double precision beyond ~1e154: every measure here says so
-// (invalid input) instead of reporting inf or NaN as a value. The MMD with a given sigma stays
-// valid: far-apart points simply have kernel value 0.
+// [D] squared distances overflow double precision beyond ~1e154: the median-bandwidth MMD
+// says so (invalid input) instead of reporting inf or NaN as a value. (Energy, Fréchet,
+// Chamfer and Hausdorff evaluate such clouds at a power-of-two unit scale and give the
+// right values: tests/core/odd_clouds_test.cpp.) The MMD with a given sigma stays valid:
+// far-apart points simply have kernel value 0.
 TEST(KernelGeometricOverflowTest, HugeCoordinatesGiveInvalidInputNotInfinity) {
   const Cloud a("A", (Eigen::MatrixX2d(2, 2) << 0, 0, 1, 0).finished());
   const Cloud b("B", (Eigen::MatrixX2d(2, 2) << 1e200, 0, 1e200, 1).finished());
-  for (const char* id : {"mmd", "energy", "frechet", "chamfer", "hausdorff"}) {
-    const Result r = evaluateMeasure(*MeasureRegistry::instance().find(id), a, b, EvalRequest{});
-    EXPECT_EQ(r.status, Status::InvalidInput) << id << " gave " << r.value;
-    EXPECT_FALSE(r.message.empty()) << id;
+  {
+    const Result r = evaluateMeasure(*MeasureRegistry::instance().find("mmd"), a, b, EvalRequest{});
+    EXPECT_EQ(r.status, Status::InvalidInput) << "mmd gave " << r.value;
+    EXPECT_FALSE(r.message.empty());
   }
   const Result given = runMmd(a, b, {"mmd.sigma=1"});
   ASSERT_EQ(given.status, Status::Ok);

@@ -4,8 +4,10 @@
 #include <gtest/gtest.h>
 
 #include <QDropEvent>
+#include <QElapsedTimer>
 #include <QFile>
 #include <QMimeData>
+#include <QTest>
 #include <QUrl>
 
 #include "field_panel.h"
@@ -140,6 +142,57 @@ TEST(SessionFileTest, AutosaveKeepsUnsavedWorkForRecovery) {
   const QString path = QString::fromStdString(barrow::test::tempPath("saved.json"));
   ASSERT_TRUE(w->saveTo(path).isEmpty());
   EXPECT_FALSE(QFile::exists(files->recoveryPath()));
+  ASSERT_TRUE(waitIdle(*w));
+}
+
+// An edit reaches the recovery file within SessionFiles::kEditAutosaveMs, without waiting
+// for the autosave interval; what the next start offers to restore is that file, byte for
+// byte (the kill-during-save and kill-during-edit cases are in tests/core/crash_safety_test).
+TEST(SessionFileTest, EditIsAutosavedSoonAndTheNextStartRestoresItByteForByte) {
+  auto w = makeWindow(demoSession());
+  SessionFiles* files = w->files();
+  files->discardRecovery();
+  Cloud a = w->session().a;
+  a.points(1, 1) = 1.0 / 7.0;
+  w->document()->setCloud(Which::A, a, "edit");
+  QElapsedTimer t;
+  t.start();
+  while (!QFile::exists(files->recoveryPath()) && t.elapsed() < 10 * SessionFiles::kEditAutosaveMs) QTest::qWait(20);
+  ASSERT_TRUE(QFile::exists(files->recoveryPath())) << "no autosave after an edit";
+  const std::string onDisk = barrow::test::readText(files->recoveryPath().toStdString());
+  ASSERT_TRUE(waitIdle(*w));
+  w.reset();  // the window goes away without a clean close (no discardRecovery)
+
+  auto next = makeWindow(demoSession());
+  QString error;
+  const auto rec = next->files()->pendingRecovery(&error);
+  ASSERT_TRUE(rec.has_value()) << error.toStdString();
+  EXPECT_EQ(formatSession(*rec), onDisk);
+  EXPECT_TRUE(sameCloud(rec->a, a));
+  next->files()->discardRecovery();
+  ASSERT_TRUE(waitIdle(*next));
+}
+
+// A save that fails part-way (a full disk, through the write-fault hook) names the file and
+// the reason, keeps the previous file as it was and leaves the work marked unsaved.
+TEST(SessionFileTest, FailedSaveSaysWhyAndKeepsThePreviousFile) {
+  auto w = makeWindow(demoSession());
+  const QString path = QString::fromStdString(barrow::test::tempPath("kept.json"));
+  ASSERT_TRUE(w->saveTo(path).isEmpty()) << w->lastError().toStdString();
+  const std::string before = barrow::test::readText(path.toStdString());
+  Cloud a = w->session().a;
+  a.points(0, 0) += 1.0;
+  w->document()->setCloud(Which::A, a, "edit");
+  const WriteFault fault{64};
+  w->files()->setSaveFault(&fault);
+  const QString e = w->saveTo(path);
+  w->files()->setSaveFault(nullptr);
+  EXPECT_TRUE(e.startsWith(path)) << e.toStdString();
+  EXPECT_TRUE(e.contains("write failed")) << e.toStdString();
+  EXPECT_EQ(w->lastError(), e);
+  EXPECT_EQ(barrow::test::readText(path.toStdString()), before);
+  EXPECT_TRUE(w->document()->isModified());
+  w->files()->discardRecovery();
   ASSERT_TRUE(waitIdle(*w));
 }
 
