@@ -8,6 +8,7 @@
 #include "cli/commands.h"
 #include "measures/details_text.h"
 #include "measures/evaluate.h"
+#include "measures/measure_json.h"
 
 namespace barrow::cli {
 
@@ -24,15 +25,7 @@ int runMeasure(const std::vector<std::string>& argv) {
   for (const Measure* m : measures) {
     const Result r = evaluateMeasure(*m, a, b, req);
     if (r.status == Status::InvalidInput) unusable.push_back(m->id() + ": " + r.message);
-    nlohmann::json row = {{"id", m->id()},
-                          {"name", m->displayName()},
-                          {"value", std::isfinite(r.value) ? nlohmann::json(r.value) : nlohmann::json()},
-                          {"status", statusName(r.status)},
-                          {"seconds", r.seconds},
-                          {"iterations", r.iterations},
-                          {"details", r.details}};
-    if (!r.message.empty()) row["message"] = r.message;
-    out["measures"].push_back(row);
+    out["measures"].push_back(measureRowJson(*m, r));
     if (!args.flag("json")) {
       std::printf("%-10s %-22s %-14s %8.3f ms\n", m->id().c_str(), formatNumber(r.value).c_str(),
                   statusName(r.status), r.seconds * 1e3);
