@@ -466,7 +466,8 @@ const char* reportPageScript() {
   });
 
   window.barrowReport = { setIndex: setIndex, index: function () { return current; }, referenceIndex: refRow,
-                          familyAt: familyAt, cloudCsv: cloudCsv, sweepCsv: sweepCsv, ready: true };
+                          familyAt: familyAt, cloudCsv: cloudCsv, sweepCsv: sweepCsv, ready: true,
+                          readyAt: performance.now() };
 })();
 )JS";
 }
