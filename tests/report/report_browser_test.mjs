@@ -204,7 +204,7 @@ cli('report', '--a', aFile, '--b', work('far.csv'), '--family', 'shift', '--from
 
 // 7. A screenshot, checked not blank; 8. print to PDF with a bounded page count.
 await page.evaluate((k) => window.barrowReport.setIndex(k), targets[2]);
-const shot = await page.screenshot({ type: 'png', fullPage: false });
+const shot = Buffer.from(await page.screenshot({ type: 'png', fullPage: false }));
 fs.writeFileSync(work('main.png'), shot);
 const pixels = await (async () => {
   const p = await browser.newPage();
@@ -224,7 +224,7 @@ const pixels = await (async () => {
 })();
 check(pixels.width === 1360 && pixels.ink > 0.03 && pixels.colours > 50,
       `screenshot is not blank (ink ${pixels.ink.toFixed(3)}, ${pixels.colours} colours)`);
-const pdf = await page.pdf({ format: 'A4', printBackground: true });
+const pdf = Buffer.from(await page.pdf({ format: 'A4', printBackground: true }));
 fs.writeFileSync(work('main.pdf'), pdf);
 const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page(?![s\w])/g) || []).length;
 const PAGE_BOUND = [2, 8];  // 8 measures: header and figures, measures, findings, cautions, commands
