@@ -93,10 +93,12 @@ void header(std::ostringstream& o, const ReportInput& in) {
 void explorer(std::ostringstream& o, const ReportInput& in) {
   const SweepSettings& s = in.sweep.settings;
   o << "<section id=\"sweep\" aria-labelledby=\"sweep-h\">\n<h2 id=\"sweep-h\">A along θ</h2>\n";
-  o << "<p class=\"note\">Move θ with the slider (arrow keys, Page Up/Down, Home/End) or by clicking the curves. "
+  o << "<p class=\"note screen-only\">Move θ with the slider (arrow keys, Page Up/Down, Home/End) or by clicking the curves. "
        "A moves exactly as the sweep moved it; every number shown is the sweep's own value at the "
        "nearest θ it computed. The plan is the exact W2 plan at the reference θ = "
     << num(s.reference.value_or(s.from)) << ".</p>\n";
+  o << "<p class=\"note print-only\">The figures show A at the reference θ = " << num(s.reference.value_or(s.from))
+    << " with the exact W2 plan there; the table under them reads every measure out at that θ.</p>\n";
   o << "<noscript><p class=\"warn\">The figures and the θ slider need JavaScript; the tables below do not.</p></noscript>\n";
   o << "<div class=\"explorer\">\n"
        "<figure class=\"fig clouds\"><svg id=\"cloud-fig\" role=\"img\" aria-label=\"The two clouds\"></svg>"
@@ -161,7 +163,8 @@ void findingsList(std::ostringstream& o, const ReportInput& in) {
   o << "<ul class=\"findings\">\n";
   for (const Finding& f : in.findings) {
     const bool flat = !f.flat.empty();
-    o << "<li data-id=\"" << htmlText(f.id) << "\"><div class=\"f-head\">" << swatch(f.id) << "<strong>"
+    o << "<li class=\"" << (f.continuous ? (flat ? "v-flat" : "v-ok") : "v-jump") << "\" data-id=\"" << htmlText(f.id)
+      << "\"><div class=\"f-head\">" << swatch(f.id) << "<strong>"
       << htmlText(nameOf(f.id)) << "</strong> <code>" << htmlText(f.id) << "</code>"
       << "<span class=\"chip " << (f.continuous ? "ok" : "bad") << "\">"
       << (f.continuous ? "continuous" : "jumps") << "</span>";

@@ -184,7 +184,7 @@ const char* reportPageScript() {
       levels[lv].push('M' + refCloud.x[e[0]] + ' ' + refCloud.y[e[0]] + 'L' + bx[e[1]] + ' ' + by[e[1]]);
     });
     levels.forEach(function (segs, lv) {
-      if (segs.length) el('path', { d: segs.join(''), fill: 'none', stroke: view.colors.plan, 'stroke-opacity': 0.12 + 0.7 * (lv + 1) / 8,
+      if (segs.length) el('path', { d: segs.join(''), fill: 'none', stroke: view.colors.plan, 'stroke-opacity': 0.06 + 0.5 * (lv + 1) / 8,
                                     'stroke-width': 1, 'vector-effect': 'non-scaling-stroke' }, planG);
     });
   }
@@ -226,7 +226,7 @@ const char* reportPageScript() {
   // ---- The curves figure --------------------------------------------------------------------
   var curveSvg = document.getElementById('curve-fig');
   var CW = 760, ML = 58, MR = 14, MT = 14, PH = 300, LANE = 13;
-  var lanesTop = MT + PH + 40, CH = lanesTop + LANE * nm + 8;
+  var lanesTop = MT + PH + 58, CH = lanesTop + LANE * nm + 8;
   curveSvg.setAttribute('viewBox', '0 0 ' + CW + ' ' + CH);
   var t0 = thetas.length ? thetas[0] : sw.from, t1 = thetas.length ? thetas[thetas.length - 1] : sw.to;
   if (!(t1 > t0)) t1 = t0 + 1;
@@ -246,6 +246,7 @@ const char* reportPageScript() {
     '\u03b8: ' + (thetaWords[fam] || fam);
   el('rect', { x: ML, y: MT, width: CW - ML - MR, height: PH, fill: 'none', stroke: '#c5ccd2' }, curveAxes);
   var yAxisG = el('g', {}, curveAxes);
+  var infLabel = el('text', { x: ML - 5, y: MT + 8, 'text-anchor': 'end', fill: '#1c2328' }, curveAxes);
   var yLabel = el('text', { transform: 'translate(12 ' + (MT + PH / 2) + ') rotate(-90)', 'text-anchor': 'middle', fill: '#1c2328' }, curveAxes);
 
   var ranges = values.map(function (vs) {
@@ -271,10 +272,11 @@ const char* reportPageScript() {
   });
   function drawCurves() {
     yAxisG.textContent = '';
+    var anyInf = false;
     var ticks = normalisedView ? [0, 0.25, 0.5, 0.75, 1] : niceTicks(globalLo, globalHi, 6);
     ticks.forEach(function (v) {
       var y = normalisedView ? MT + PH - (0.04 + 0.92 * v) * PH : yOf(0, v);
-      if (!isFinite(y) || y < MT - 1 || y > MT + PH + 1) return;
+      if (!isFinite(y) || y < MT + 10 || y > MT + PH + 1) return;
       el('line', { x1: ML, x2: CW - MR, y1: y, y2: y, stroke: '#edf0f2' }, yAxisG);
       el('text', { x: ML - 5, y: y + 3.5, 'text-anchor': 'end' }, yAxisG).textContent = tickText(v);
     });
@@ -288,14 +290,17 @@ const char* reportPageScript() {
       }
       paths[k].setAttribute('d', d.join(''));
       infMarks[k].setAttribute('d', inf.join(''));
+      anyInf = anyInf || inf.length > 0;
     });
+    infLabel.textContent = anyInf ? '+\u221e' : '';
   }
 
   // Lanes: one per measure, its flat stretches and jumps.
   ids.forEach(function (id, k) {
     var y = lanesTop + k * LANE, f = findings[id];
-    el('text', { x: ML - 5, y: y + 9.5, 'text-anchor': 'end', fill: styleOf(id).color === '#f0e442' ? '#8a7d00' : styleOf(id).color }, lanesG).textContent = id;
-    el('line', { x1: ML, x2: CW - MR, y1: y + 6.5, y2: y + 6.5, stroke: '#e3e7ea' }, lanesG);
+    el('text', { x: ML - 8, y: y + 9.5, 'text-anchor': 'end', fill: '#1c2328' }, lanesG).textContent = id;
+    el('line', { x1: ML, x2: CW - MR, y1: y + 6.5, y2: y + 6.5, stroke: styleOf(id).color, 'stroke-width': 1.4,
+                 'stroke-dasharray': styleOf(id).dash, 'stroke-opacity': 0.7 }, lanesG);
     if (!f) return;
     f.flat.forEach(function (st) {
       el('rect', { x: xOf(st[0]), y: y + 1.5, width: Math.max(1.5, xOf(st[1]) - xOf(st[0])), height: 10, fill: view.colors.flat,
@@ -311,7 +316,7 @@ const char* reportPageScript() {
     marks(f.jumps, false);
     marks(f.unresolved, true);
   });
-  el('text', { x: ML, y: lanesTop - 5, fill: '#5d6872', 'font-size': 10 }, lanesG).textContent =
+  el('text', { x: ML, y: lanesTop - 6, fill: '#5d6872', 'font-size': 10 }, lanesG).textContent =
     'Findings per measure: \u25bc jump, \u25bd unresolved, blue band = flat (no gradient)';
 
   var cursorLine = el('line', { y1: MT, y2: CH - 4, stroke: '#282828', 'stroke-width': 1.2 }, cursorG);
@@ -319,7 +324,7 @@ const char* reportPageScript() {
   var pickedBands = el('g', {}, bandsG);
 
   var curveLegend = document.getElementById('curve-legend');
-  legendItem(curveLegend, 'Click a row of the table below to pick out one measure.');
+  legendItem(curveLegend, 'Click a row of the table below to pick out one measure.').classList.add('screen-only');
 
   // ---- The readout ---------------------------------------------------------------------------
   var tbody = document.querySelector('#readout tbody');

@@ -68,6 +68,8 @@ td.settings { font-size: 12.5px; color: var(--muted); max-width: 420px; }
 .findings li { padding: 8px 12px; background: var(--panel); border: 1px solid var(--rule); border-left-width: 4px;
   border-radius: 4px; break-inside: avoid; }
 .findings p { margin: 4px 0 0; }
+.findings li.v-ok { border-left-color: var(--good); } .findings li.v-jump { border-left-color: var(--bad); }
+.findings li.v-flat { border-left-color: var(--flat); }
 .f-head { display: flex; align-items: center; flex-wrap: wrap; gap: 6px; }
 .f-facts { font-size: 12.5px; color: var(--muted); }
 .chip { font-size: 11.5px; padding: 0 7px; border-radius: 9px; border: 1px solid currentColor; }

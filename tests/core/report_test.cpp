@@ -76,7 +76,10 @@ TEST(ReportDataTest, CarriesTheSweepCsvCellsAndTheFindingsJson) {
       const auto& cell = data["sweep"]["rows"][k][c];
       const std::string& text = t.rows[k][c];
       if (text.empty()) EXPECT_TRUE(cell.is_null());
-      else if (text == "inf") sawInf = true, EXPECT_EQ(cell, "inf");
+      else if (text == "inf") {
+        sawInf = true;
+        EXPECT_EQ(cell, "inf");
+      }
       else EXPECT_EQ(cell.get<double>(), std::stod(text)) << t.columns[c] << " row " << k;
     }
   EXPECT_TRUE(sawInf) << "KL between shifted Gaussians on a histogram should meet +inf somewhere";
