@@ -196,21 +196,28 @@ const char* reportPageScript() {
   }
   el('path', { d: tri.join(''), fill: view.colors.B, 'fill-opacity': 0.78, stroke: '#9e4600', 'stroke-width': 0.8,
                'vector-effect': 'non-scaling-stroke', 'class': 'cloud-b' }, world);
-  // A_theta: one circle per point (they move).
-  var aG = el('g', { 'class': 'cloud-a', fill: view.colors.A, 'fill-opacity': 0.78, stroke: '#005484', 'stroke-width': 0.8 }, world);
-  var circles = [], frag = document.createDocumentFragment();
-  for (var k = 0; k < size; ++k) {
-    var c = document.createElementNS(NS, 'circle');
-    c.setAttribute('vector-effect', 'non-scaling-stroke');
-    c.setAttribute('data-i', k);
-    frag.appendChild(c);
-    circles.push(c);
+  // A_theta: one path, one circle per point, each begun by an absolute move to the point's
+  // exact coordinates ("M x y", then a relative step to the circle's edge): one attribute to
+  // update per move of the slider, and the points can be read back from it exactly.
+  var aPath = el('path', { 'class': 'cloud-a', fill: view.colors.A, 'fill-opacity': 0.78, stroke: '#005484',
+                           'stroke-width': 0.8, 'vector-effect': 'non-scaling-stroke' }, world);
+  // Marker outlines, kept by diameter in quarter pixels (as the window keeps its sprites).
+  var arcCache = {};
+  function arcFor(diam) {
+    var key = Math.round(diam * 4);
+    var hit = arcCache[key];
+    if (hit !== undefined) return hit;
+    var r = key / 8 * px1;
+    return (arcCache[key] = r > 0 ? 'm' + -r + ' 0a' + r + ' ' + r + ' 0 1 0 ' + 2 * r + ' 0a' + r + ' ' + r + ' 0 1 0 ' + -2 * r + ' 0' : '');
   }
-  aG.appendChild(frag);
-  var fixedRadius = fam !== 'mix' && fam !== 'interpolate';
-  if (fixedRadius) {
-    var ad = diameters(aw, 7);
-    for (k = 0; k < size; ++k) circles[k].setAttribute('r', ad[k] / 2 * px1);
+  function arcs(diam) { var out = new Array(diam.length); for (var i = 0; i < diam.length; ++i) out[i] = arcFor(diam[i]); return out; }
+  // Only the mix changes the masses (and so the marker sizes); only the mix keeps the points still.
+  var fixedArcs = fam === 'mix' ? null : arcs(diameters(familyAt(sw.from).w, 7));
+  var fixedMoves = null;
+  if (fam === 'mix') {
+    var still = familyAt(sw.from);
+    fixedMoves = new Array(size);
+    for (var q2 = 0; q2 < size; ++q2) fixedMoves[q2] = 'M' + still.x[q2] + ' ' + still.y[q2];
   }
   var planNote = el('text', { x: W - 8, y: 14, 'text-anchor': 'end', 'font-size': 11, fill: '#5d6872' }, cloudSvg);
 
@@ -391,13 +398,10 @@ const char* reportPageScript() {
     out.textContent = text + (r === refRow ? '  (reference)' : '');
     out.setAttribute('data-theta', String(t));
     var at = familyAt(t);
-    var d = fixedRadius ? null : diameters(at.w, 7);
-    for (var i = 0; i < size; ++i) {
-      var c = circles[i];
-      c.setAttribute('cx', at.x[i]);
-      c.setAttribute('cy', at.y[i]);
-      if (d) c.setAttribute('r', d[i] / 2 * px1);
-    }
+    var arc = fixedArcs || arcs(diameters(at.w, 7)), parts = new Array(size);
+    if (fixedMoves) for (var i = 0; i < size; ++i) parts[i] = fixedMoves[i] + arc[i];
+    else for (var i2 = 0; i2 < size; ++i2) parts[i2] = 'M' + at.x[i2] + ' ' + at.y[i2] + arc[i2];
+    aPath.setAttribute('d', parts.join(''));
     var showPlan = r === refRow;
     planG.setAttribute('visibility', showPlan ? 'visible' : 'hidden');
     planNote.textContent = plan.length && !showPlan ? 'plan shown at the reference \u03b8 only' : '';

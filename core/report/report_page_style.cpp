@@ -28,7 +28,7 @@ code, pre, .n { font-family: var(--mono); font-size: 13px; }
 .meta div { display: flex; gap: 6px; } .meta dt { font-weight: 600; } .meta dd { margin: 0; }
 table { border-collapse: collapse; width: 100%; background: var(--panel); }
 th, td { padding: 5px 9px; border-bottom: 1px solid var(--rule); vertical-align: top; text-align: left; }
-th { font-size: 12px; text-transform: uppercase; letter-spacing: 0.05em; color: var(--muted); font-weight: 600;
+th { font-size: 12.5px; color: var(--muted); font-weight: 600;
   border-bottom: 1px solid var(--ink); }
 td { overflow-wrap: anywhere; }
 .files td:nth-child(2), .files td:nth-child(3) { max-width: 360px; }

@@ -39,6 +39,10 @@ function csvTable(text) {
   const rows = lines.slice(1).map((l) => l.split(',').map((c) => (c === '' ? null : c === 'inf' || c === '-inf' ? c : Number(c))));
   return { columns, rows };
 }
+// A_θ as the page drew it: each circle of the path starts with an absolute "M x y" at the
+// point, then "m-r 0" to its edge (no arc when the point has no mass).
+const drawnA = (page, sel = '#cloud-fig path.cloud-a') => page.evaluate((sel) => document.querySelector(sel).getAttribute('d'), sel)
+  .then((d) => [...d.matchAll(/M([^ ]+) ([^maM]+)(?:m([^ ]+) 0)?/g)].map((m) => [Number(m[1]), Number(m[2]), m[3] ? -Number(m[3]) : 0]));
 function familyPoints(a, b, family, dir, center, thetas) {
   return JSON.parse(execFileSync(opt['family-points'], [a, b, family, dir, center, ...thetas.map(String)], { encoding: 'utf8' }));
 }
@@ -116,7 +120,7 @@ for (const k of targets) {
     }
   });
   const pts = engine[String(row[0])].points;
-  const circles = await page.evaluate(() => Array.from(document.querySelectorAll('#cloud-fig .cloud-a circle')).map((c) => [+c.getAttribute('cx'), +c.getAttribute('cy')]));
+  const circles = await drawnA(page);
   check(circles.length === pts.length, `A has ${pts.length} points in the figure`);
   for (const i of [0, 7, 19, pts.length - 1])
     check(near(circles[i][0], pts[i][0], 1e-12) && near(circles[i][1], pts[i][1], 1e-12),
@@ -136,7 +140,7 @@ for (const [family, dir, center, range] of [['rotate', '-', '0.2,-0.1', ['-120',
   const eng = familyPoints(aFile, bFile, family, '-', center, picks.map((k) => rows[k]));
   for (const k of picks) {
     await p.evaluate((k) => window.barrowReport.setIndex(k), k);
-    const got = await p.evaluate(() => Array.from(document.querySelectorAll('#cloud-fig .cloud-a circle')).map((c) => [+c.getAttribute('cx'), +c.getAttribute('cy'), +c.getAttribute('r')]));
+    const got = await drawnA(p);
     const e = eng[String(rows[k])];
     check(got.length === e.points.length, `${family}: ${e.points.length} points in A_θ`);
     for (const i of [0, 3, Math.floor(e.points.length / 2), e.points.length - 1])
@@ -181,8 +185,8 @@ cli('report', '--a', work('one.csv'), '--b', bFile, '--family', 'rotate', '--ste
     '--threads', '1', '--out', work('one.html'));
 {
   const p = await open(work('one.html'));
-  const got = await p.evaluate(() => ({ n: document.querySelectorAll('#cloud-fig .cloud-a circle').length,
-    values: Array.from(document.querySelectorAll('#readout .value')).map((td) => td.textContent) }));
+  const got = await p.evaluate(() => ({ values: Array.from(document.querySelectorAll('#readout .value')).map((td) => td.textContent) }));
+  got.n = (await drawnA(p)).length;
   check(got.n === 1, 'one-point cloud: one marker');
   check(got.values.length === 4 && got.values.every((v) => v !== '—'), 'one-point cloud: every measure has a value');
   await p.close();
@@ -229,10 +233,7 @@ fs.writeFileSync(work('main.pdf'), pdf);
 const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page(?![s\w])/g) || []).length;
 const PAGE_BOUND = [2, 8];  // 8 measures: header and figures, measures, findings, cautions, commands
 check(pages >= PAGE_BOUND[0] && pages <= PAGE_BOUND[1], `PDF has ${pages} pages (bound ${PAGE_BOUND.join('–')})`);
-const printed = await page.evaluate(() => {
-  const copy = document.querySelector('.explorer.print-only');
-  return copy ? +copy.querySelector('.cloud-a circle').getAttribute('cx') : NaN;
-});
+const printed = (await drawnA(page, '.explorer.print-only path.cloud-a'))[0][0];
 const atRef = familyPoints(aFile, bFile, 'shift', '1,0.5', '-', [data.sweep.rows[await page.evaluate(() => window.barrowReport.referenceIndex)][0]]);
 check(printed === Object.values(atRef)[0].points[0][0], 'the printed figure shows A at the reference θ');
 
