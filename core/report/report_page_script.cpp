@@ -154,8 +154,8 @@ const char* reportPageScript() {
   niceTicks(lo[1] - spanY * 0.04, hi[1] + spanY * 0.04, 5).forEach(function (v) {
     var py = oy - scale * v;
     if (py < 10 || py > H - 20) return;
-    el('line', { x1: 10, x2: 14, y1: py, y2: py, stroke: '#9aa4ad' }, frame);
-    el('text', { x: 16, y: py + 3.5 }, frame).textContent = tickText(v);
+    el('line', { x1: 1, x2: 5, y1: py, y2: py, stroke: '#9aa4ad' }, frame);
+    el('text', { x: 8, y: py + 3.5 }, frame).textContent = tickText(v);
   });
   // Data coordinates inside: cx, cy of every marker are the cloud's own numbers.
   var world = el('g', { transform: 'matrix(' + scale + ' 0 0 ' + -scale + ' ' + ox + ' ' + oy + ')' }, cloudSvg);
