@@ -2,6 +2,7 @@
 // barrow-cli report --a A --b B <the sweep options> [--title T] --out report.html
 // Runs the sweep, its findings and the measures, then writes one self-contained HTML file.
 #include <algorithm>
+#include <cmath>
 #include <cstdio>
 
 #include "cli/cli_common.h"
@@ -33,6 +34,11 @@ SweepRequest requestFromSession(const Session& s, const CliArgs& args, const std
   req.threads = args.integer("threads", 0);
   if (req.threads < 0) throw UsageError{"--threads: expected 0 (all cores) or a positive number"};
   req.refineJumps = !args.flag("no-refine");
+  req.maxRefinePoints = args.integer("refine-budget", 0);
+  req.thetaTolerance = args.number("resolution", 0.0);
+  if (req.maxRefinePoints < 0) throw UsageError{"--refine-budget: expected 0 (the default) or a positive number"};
+  if (!(req.thetaTolerance >= 0) || !std::isfinite(req.thetaTolerance))
+    throw UsageError{"--resolution: expected a θ width > 0 (0 = the default)"};
   req.warmStart = !args.flag("no-warm-start");
   return req;
 }
@@ -44,6 +50,7 @@ int runReport(const std::vector<std::string>& argv) {
   for (const char* extra : {"session", "out", "title"}) valued.push_back(extra);
   const CliArgs args("report", argv, valued, {"no-refine", "no-warm-start"});
   const std::string out = args.required("out");
+  checkWritable(out, "out");
 
   ReportSources src;
   src.out = out;
@@ -52,7 +59,7 @@ int runReport(const std::vector<std::string>& argv) {
   SweepResult sweep;
   if (args.has("session")) {
     for (const auto& name : sweepOptionNames())
-      if (args.has(name) && name != "threads")
+      if (args.has(name) && name != "threads" && name != "refine-budget" && name != "resolution")
         throw UsageError{"give either --session FILE or the clouds and sweep options, not both (--" + name + ")"};
     if (!args.sets().empty()) throw UsageError{"--set has no use with --session: the session holds the settings"};
     src.sessionFile = *args.value("session");

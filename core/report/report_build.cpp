@@ -69,6 +69,7 @@ std::vector<std::string> reproduceCommands(const ReportSources& src, const Sweep
   sweep += " --measures " + ids + sets;
   if (r.threads > 0) sweep += " --threads " + std::to_string(r.threads);
   if (r.refineTolerance == 0.0) sweep += " --no-refine";
+  else sweep += " --refine-budget " + std::to_string(r.refineBudget) + " --resolution " + shellWord(shortestText(r.refineTolerance));
   if (!r.warmStart) sweep += " --no-warm-start";
 
   std::vector<std::string> lines;
@@ -126,7 +127,7 @@ ReportInput gatherReport(const Cloud& a, const Cloud& b, const ReportSources& sr
     EvalRequest planReq;
     planReq.wantPlan = true;
     planReq.control = control;
-    const Result r = evaluateMeasure(*w2, family.at(s.reference.value_or(s.from)), b, planReq);
+    const Result r = evaluateMeasure(*w2, family.at(s.referenceTheta()), b, planReq);
     if (r.status == Status::Ok) in.referencePlan = r.plan;
     else in.referencePlanNote = "no plan: the exact W2 solve ended with status " + std::string(statusName(r.status)) +
                                 (r.message.empty() ? "" : " (" + r.message + ")");

@@ -61,7 +61,7 @@ nlohmann::ordered_json reportData(const ReportInput& in) {
   clouds["A"] = cloudJson(in.a);
   clouds["B"] = cloudJson(in.b);
   ojson plan;
-  plan["theta"] = s.reference.value_or(s.from);
+  plan["theta"] = s.referenceTheta();
   plan["cost"] = "w2";
   plan["entries"] = planJson(in.referencePlan);
   if (!in.referencePlanNote.empty()) plan["note"] = in.referencePlanNote;
@@ -76,7 +76,7 @@ nlohmann::ordered_json reportData(const ReportInput& in) {
   sweep["from"] = s.from;
   sweep["to"] = s.to;
   sweep["steps"] = s.steps;
-  sweep["reference"] = s.reference.value_or(s.from);
+  sweep["reference"] = s.referenceTheta();
   ojson ids = ojson::array();
   for (const auto& ser : r.series) ids.push_back(ser.id);
   sweep["measures"] = ids;
@@ -84,6 +84,7 @@ nlohmann::ordered_json reportData(const ReportInput& in) {
   sweep["warm_start"] = r.warmStart;
   sweep["refine_tolerance"] = r.refineTolerance;
   sweep["refined_points"] = r.refinedPoints;
+  sweep["refine_budget"] = r.refineBudget;
   sweep["refine_budget_hit"] = r.refineBudgetHit;
   sweep["seconds"] = r.seconds;
   ojson frozen = ojson::object(), rules = ojson::object(), gradient = ojson::object();

@@ -96,8 +96,8 @@ void explorer(std::ostringstream& o, const ReportInput& in) {
   o << "<p class=\"note screen-only\">Move θ with the slider (arrow keys, Page Up/Down, Home/End) or by clicking the curves. "
        "A moves exactly as the sweep moved it; every number shown is the sweep's own value at the "
        "nearest θ it computed. The plan is the exact W2 plan at the reference θ = "
-    << num(s.reference.value_or(s.from)) << ".</p>\n";
-  o << "<p class=\"note print-only\">The figures show A at the reference θ = " << num(s.reference.value_or(s.from))
+    << num(s.referenceTheta()) << ".</p>\n";
+  o << "<p class=\"note print-only\">The figures show A at the reference θ = " << num(s.referenceTheta())
     << " with the exact W2 plan there; the table under them reads every measure out at that θ.</p>\n";
   o << "<noscript><p class=\"warn\">The figures and the θ slider need JavaScript; the tables below do not.</p></noscript>\n";
   o << "<div class=\"explorer\">\n"
@@ -167,13 +167,18 @@ void findingsList(std::ostringstream& o, const ReportInput& in) {
       << "\"><div class=\"f-head\">" << swatch(f.id) << "<strong>"
       << htmlText(nameOf(f.id)) << "</strong> <code>" << htmlText(f.id) << "</code>"
       << "<span class=\"chip " << (f.continuous ? "ok" : "bad") << "\">"
-      << (f.continuous ? "continuous" : "jumps") << "</span>";
+      << (f.continuous ? "continuous" : !f.jumps.empty() ? "jumps" : "unresolved") << "</span>";
     if (flat) o << "<span class=\"chip flat\">flat stretches</span>";
     o << "</div>\n<p>" << htmlText(f.summary) << "</p>\n<p class=\"f-facts\">";
     if (!f.jumps.empty()) {
       o << "Jumps at ";
       for (std::size_t k = 0; k < f.jumps.size(); ++k)
         o << (k ? ", " : "") << "θ ≈ " << num(f.jumps[k].theta) << " (size " << num(f.jumps[k].size) << ")";
+      o << ". ";
+    }
+    if (!f.unresolved.empty()) {
+      o << "Unresolved (jump-like, not confirmed at the resolution) at ";
+      for (std::size_t k = 0; k < f.unresolved.size(); ++k) o << (k ? ", " : "") << "θ ≈ " << num(f.unresolved[k].theta);
       o << ". ";
     }
     if (flat) {
@@ -198,7 +203,7 @@ void cautions(std::ostringstream& o, const ReportInput& in) {
   o << "<li><strong>Settings matter.</strong> ε, the kernel bandwidth σ, the number of slicing directions, the "
        "density estimator and its bin width, bandwidth or k all change the values, sometimes by a lot. The settings "
        "used are listed beside every value. Settings that depend on the data were fixed once at the reference θ = "
-    << num(r.settings.reference.value_or(r.settings.from)) << " and kept for the whole sweep.</li>\n";
+    << num(r.settings.referenceTheta()) << " and kept for the whole sweep.</li>\n";
   bool density = false;
   for (const auto& s : r.series)
     density = density || s.id == "kl_ab" || s.id == "kl_ba" || s.id == "js" || s.id == "tv" || s.id == "hellinger";
