@@ -48,7 +48,8 @@ function familyPoints(a, b, family, dir, center, thetas) {
 }
 
 const sweepArgs = ['--a', aFile, '--b', bFile, '--family', 'shift', '--direction', '1,0.5', '--from', '-1.5', '--to', '1.5',
-                   '--steps', '61', '--measures', 'w2,sinkhorn,mmd,energy,hausdorff,js,kl_ab,tv', '--threads', '1'];
+                   '--steps', '61', '--measures', 'w2,sinkhorn,mmd,energy,hausdorff,js,kl_ab,tv', '--threads', '1',
+                   '--refine-budget', '400'];  // enough bisection to confirm the histogram jumps
 const t0 = Date.now();
 cli('report', ...sweepArgs, '--out', work('main.html'));
 cli('sweep', ...sweepArgs, '--out', work('main.csv'));
