@@ -9,12 +9,15 @@ PACKAGES=(cmake ninja-build ccache g++ pkg-config
           libgtest-dev libgmock-dev googletest libbenchmark-dev liblemon-dev
           python3 python3-numpy python3-scipy python3-sklearn
           xvfb xauth fonts-dejavu-core
-          clang-14 libclang-rt-14-dev)  # fuzz targets (libFuzzer) and sanitizer builds
+          clang-14 libclang-rt-14-dev  # fuzz targets (libFuzzer) and sanitizer builds
+          chromium nodejs)  # the report's browser tests (tests/report)
 
 missing=()
 for p in "${PACKAGES[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
 done
+# npm: Debian's package, unless the installed Node already brings its own.
+command -v npm >/dev/null 2>&1 || missing+=(npm)
 if [ ${#missing[@]} -gt 0 ]; then
   echo "setup: installing ${missing[*]}"
   SUDO=""
@@ -22,6 +25,10 @@ if [ ${#missing[@]} -gt 0 ]; then
   $SUDO apt-get update -qq
   DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -qq --no-install-recommends "${missing[@]}"
 fi
+
+# The report's browser tests drive the system Chromium with puppeteer-core, pinned by the
+# committed lockfile (it never downloads a browser).
+(cd tests/report && npm ci --no-audit --no-fund --loglevel=error)
 
 BUILD_DIR=${BARROW_BUILD_DIR:-build}
 cmake -S . -B "$BUILD_DIR" -G Ninja -DCMAKE_BUILD_TYPE=Release "$@" >/dev/null

@@ -10,6 +10,7 @@
 #include <QMenuBar>
 #include <QMessageBox>
 #include <QMimeData>
+#include <QProgressDialog>
 #include <QPushButton>
 #include <QSettings>
 #include <QStatusBar>
@@ -25,6 +26,8 @@
 #include "live_evaluator.h"
 #include "measures/registry.h"
 #include "measures_panel.h"
+#include "report/sweep_passes.h"
+#include "report_export.h"
 #include "scenario/generators.h"
 #include "session_files.h"
 #include "sweep_panel.h"
@@ -66,6 +69,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   setObjectName("barrowMainWindow");
   setAcceptDrops(true);
   files_ = new SessionFiles(doc_, [this] { return viewOptions(); }, this);
+  report_ = new ReportExport(this);
   field_ = new FieldPanel(doc_, this);
   field_->setObjectName("fieldPanel");
   setCentralWidget(field_);
@@ -209,6 +213,8 @@ void MainWindow::buildMenus() {
   }, this);
   add(file, tr("Export measures table (CSV)…"), {}, tr("Every measure's value, change, status and time"),
       [this] { exportTextDialog(tr("Export measures"), "measures.csv", measures_->toCsv()); }, this);
+  add(file, tr("Export &report (HTML)…"), {}, tr("One HTML file a teammate can open offline: clouds, measures, sweep with a θ slider, findings"),
+      [this] { exportReportDialog(); }, this);
   file->addSeparator();
   add(file, tr("&Quit"), QKeySequence::Quit, tr("Close Barrow"), [this] { close(); }, this);
 
@@ -611,6 +617,44 @@ void MainWindow::exportTextDialog(const QString& title, const QString& defaultNa
   const QString e = SessionFiles::writeText(p, text);
   if (!e.isEmpty()) reportError(tr("Cannot export"), e);
   else status(tr("Wrote %1").arg(p));
+}
+
+void MainWindow::exportReportDialog() {
+  const QString dir = QSettings().value("files/lastDir").toString();
+  const QString p = QFileDialog::getSaveFileName(this, tr("Export report"), dir.isEmpty() ? "report.html" : dir + "/report.html",
+                                                 tr("HTML report (*.html)"));
+  if (!p.isEmpty()) exportReport(p);
+}
+
+void MainWindow::exportReport(const QString& path) {
+  // The window's sweep when it matches the session (finished, not stale); else the export runs one.
+  std::optional<SweepResult> current;
+  std::vector<Finding> findings;
+  if (!sweep_->parts().empty() && !sweep_->plots()->stale() && !sweep_->cancelled() && !sweep_->running()) {
+    std::vector<SweepResult> passes;
+    for (const auto& part : sweep_->parts()) passes.push_back(part.result);
+    current = mergeSweepPasses(passes);
+    findings = sweep_->findings();
+  }
+  auto* dialog = options_.quiet ? nullptr : new QProgressDialog(tr("Writing the report…"), tr("Cancel"), 0, 1000, this);
+  if (dialog) {
+    dialog->setWindowModality(Qt::WindowModal);
+    dialog->setMinimumDuration(300);
+    dialog->setAttribute(Qt::WA_DeleteOnClose);
+    connect(dialog, &QProgressDialog::canceled, report_, &ReportExport::cancel);
+    connect(report_, &ReportExport::progress, dialog, [dialog](double f, const QString& stage) {
+      dialog->setValue(int(1000 * f));
+      if (!stage.isEmpty()) dialog->setLabelText(stage + QStringLiteral("…"));
+    });
+  }
+  connect(report_, &ReportExport::finished, this, [this, dialog](const QString& p, const QString& error) {
+    if (dialog) dialog->close();
+    if (error.isEmpty()) status(tr("Wrote the report %1").arg(p));
+    else if (error == QLatin1String("cancelled")) status(tr("Report cancelled; nothing was written."));
+    else reportError(tr("Cannot write the report"), error);
+  }, Qt::SingleShotConnection);
+  status(current ? tr("Writing the report…") : tr("Running the sweep for the report…"));
+  report_->start(path, doc_->session(), doc_->path(), std::move(current), std::move(findings));
 }
 
 std::string MainWindow::planCsv() const {

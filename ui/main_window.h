@@ -22,6 +22,7 @@ class FindingsPanel;
 class GettingStarted;
 class LiveEvaluator;
 class MeasuresPanel;
+class ReportExport;
 class SessionFiles;
 class SweepPanel;
 struct LiveUpdate;
@@ -76,6 +77,10 @@ class MainWindow : public QMainWindow {
   SessionFiles* files() const { return files_; }
   const QString& lastError() const { return lastError_; }
   void showGettingStarted();
+  /// Writes the session's HTML report to `path` off the GUI thread (running the sweep first
+  /// when the window has none that is current); reportExport() signals the end.
+  void exportReport(const QString& path);
+  ReportExport* reportExport() const { return report_; }
 
  signals:
   void busyChanged(bool busy);
@@ -117,6 +122,7 @@ class MainWindow : public QMainWindow {
   void exportFigureDialog(int which);  // 0 the Field, 1 the Sweep plot
   void exportTextDialog(const QString& title, const QString& defaultName, const std::string& text);
   std::string planCsv() const;
+  void exportReportDialog();
 
   Options options_;
   SessionDocument* doc_;
@@ -126,6 +132,7 @@ class MainWindow : public QMainWindow {
   MeasuresPanel* measures_;
   SweepPanel* sweep_;
   FindingsPanel* findings_;
+  ReportExport* report_ = nullptr;
   GettingStarted* guide_ = nullptr;
   QLabel* busyLabel_;
   QMenu* recentMenu_ = nullptr;

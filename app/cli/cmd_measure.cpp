@@ -8,6 +8,7 @@
 #include "cli/commands.h"
 #include "measures/details_text.h"
 #include "measures/evaluate.h"
+#include "measures/measure_json.h"
 #include "measures/units.h"
 
 namespace barrow::cli {
@@ -26,16 +27,7 @@ int runMeasure(const std::vector<std::string>& argv) {
     const Result r = evaluateMeasure(*m, a, b, req);
     if (r.status == Status::InvalidInput) unusable.push_back(m->id() + ": " + r.message);
     const std::string unit = measureUnit(*m, req.params);
-    nlohmann::json row = {{"id", m->id()},
-                          {"name", m->displayName()},
-                          {"value", std::isfinite(r.value) ? nlohmann::json(r.value) : nlohmann::json()},
-                          {"unit", unit},
-                          {"status", statusName(r.status)},
-                          {"seconds", r.seconds},
-                          {"iterations", r.iterations},
-                          {"details", r.details}};
-    if (!r.message.empty()) row["message"] = r.message;
-    out["measures"].push_back(row);
+    out["measures"].push_back(measureRowJson(*m, r, req.params));
     if (!args.flag("json")) {
       const std::string shown = formatNumber(r.value) + " " + unit;  // the unit right beside the number
       std::printf("%-10s %-36s %-14s %8.3f ms\n", m->id().c_str(), shown.c_str(), statusName(r.status),

@@ -82,6 +82,19 @@ A jump to or from +∞ has "size": null and "to": "inf" or "from": "inf". "conti
 false when there is a jump or an unresolved suspect.
 
 )") + kFindingsRule + "\n" + kSweepOptions;
+  if (command == "report")
+    return std::string(R"(barrow-cli report --session S.json [--title T] [--threads N] [--no-refine] --out report.html
+barrow-cli report --a A --b B <sweep options> [--title T] --out report.html
+
+Runs the sweep, its findings and every swept measure on A against B, then writes one HTML file
+that opens offline in any browser: both clouds with the exact W2 plan at the reference θ, the
+measures with their settings, the curves with a θ slider that moves A and reads every measure
+out at that θ (the sweep's own values), the findings in words, cautions, and the barrow-cli
+lines that reproduce it. The numbers are inside as JSON in
+<script type="application/json" id="barrow-report-data"> (keys clouds, settings, measures,
+sweep {columns, rows}, findings).
+
+)") + kSweepOptions;
   if (command == "plan")
     return R"(barrow-cli plan --a A --b B [--cost w1|w2] --out plan.csv [--potentials P.csv]
 

@@ -21,6 +21,7 @@ int runPlan(const std::vector<std::string>& argv);
 int runSweep(const std::vector<std::string>& argv);
 int runFindings(const std::vector<std::string>& argv);
 int runDemo(const std::vector<std::string>& argv);
+int runReport(const std::vector<std::string>& argv);
 
 // Shared by sweep, findings and demo (defined in cmd_sweep.cpp).
 const std::vector<std::string>& sweepOptionNames();  // valued options that describe a sweep

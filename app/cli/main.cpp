@@ -22,6 +22,7 @@ usage:
                       [--refine-budget N] [--resolution H] [--no-refine] [--no-warm-start]
   barrow-cli findings --sweep sweep.csv  (or the sweep options)  [--json]
   barrow-cli demo     (writes a demo scenario and runs a sweep on it)  [--out DIR] [--json]
+  barrow-cli report   (--session S.json | --a A --b B [sweep options]) --out report.html [--title T]
   barrow-cli --help | --version | COMMAND --help
 
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
@@ -63,6 +64,7 @@ int main(int argc, char** argv) {
     if (cmd == "sweep") return runSweep(rest);
     if (cmd == "findings") return runFindings(rest);
     if (cmd == "demo") return runDemo(rest);
+    if (cmd == "report") return runReport(rest);
     std::fprintf(stderr, "barrow-cli: unknown command '%s' (see --help)\n", cmd.c_str());
     return kExitBadInput;
   } catch (const UsageError& e) {

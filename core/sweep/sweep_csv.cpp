@@ -87,6 +87,24 @@ void readSetting(SweepResult& r, std::map<std::string, std::string>& perMeasure,
 
 }  // namespace
 
+SweepTable sweepTable(const SweepResult& r) {
+  SweepTable t;
+  t.columns.push_back("theta");
+  for (const auto& ser : r.series) t.columns.push_back(ser.id);
+  for (const auto& ser : r.series) t.columns.push_back("d_" + ser.id);
+  t.rows.reserve(r.theta.size());
+  for (std::size_t k = 0; k < r.theta.size(); ++k) {
+    std::vector<std::string> row;
+    row.reserve(t.columns.size());
+    row.push_back(cell(r.theta[k]));
+    for (const auto& ser : r.series) row.push_back(k < ser.value.size() ? cell(ser.value[k]) : "");
+    for (const auto& ser : r.series)
+      row.push_back(k < ser.slope.size() && k < ser.value.size() && !std::isnan(ser.value[k]) ? cell(ser.slope[k]) : "");
+    t.rows.push_back(std::move(row));
+  }
+  return t;
+}
+
 std::string formatSweepCsv(const SweepResult& r) {
   const SweepSettings& s = r.settings;
   std::ostringstream o;
@@ -120,17 +138,9 @@ std::string formatSweepCsv(const SweepResult& r) {
     o << "# accuracy." << ser.id << "=" << cell(ser.accuracy) << "\n";
     o << "# unit." << ser.id << "=" << ser.unit << "\n";
   }
-  o << "theta";
-  for (const auto& id : ids) o << "," << id;
-  for (const auto& id : ids) o << ",d_" << id;
-  o << "\n";
-  for (std::size_t k = 0; k < r.theta.size(); ++k) {
-    o << cell(r.theta[k]);
-    for (const auto& ser : r.series) o << "," << (k < ser.value.size() ? cell(ser.value[k]) : "");
-    for (const auto& ser : r.series)
-      o << "," << (k < ser.slope.size() && !std::isnan(ser.value[k]) ? cell(ser.slope[k]) : "");
-    o << "\n";
-  }
+  const SweepTable t = sweepTable(r);
+  o << joined(t.columns, ',') << "\n";
+  for (const auto& row : t.rows) o << joined(row, ',') << "\n";
   return o.str();
 }
 

@@ -8,11 +8,20 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "io/load_error.h"
 #include "sweep/sweep_result.h"
 
 namespace barrow {
+
+/// The table part of the CSV as cells: the header, then one row per θ, each cell exactly as
+/// the CSV writes it ("inf" for +∞, "" where failed). The report reuses it.
+struct SweepTable {
+  std::vector<std::string> columns;
+  std::vector<std::vector<std::string>> rows;
+};
+SweepTable sweepTable(const SweepResult& r);
 
 std::string formatSweepCsv(const SweepResult& r);
 /// Atomic write; returns the reason on failure.
