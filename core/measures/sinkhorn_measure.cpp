@@ -47,7 +47,8 @@ const SinkhornResult* reusableSelf(const SinkhornWarm* w, const Cloud& x) {
   const std::tuple<const Eigen::MatrixX2d*, const Eigen::VectorXd*, const SinkhornResult*> terms[] = {
       {&w->ab.x, &w->weightsA, &w->aa}, {&w->ab.y, &w->weightsB, &w->bb}};
   for (const auto& [points, weights, result] : terms)
-    if (result->status == SinkhornStatus::Converged && *weights == x.weights && rigidlyMoved(*points, x.points, true))
+    if (result->status == SinkhornStatus::Converged && weights->size() == x.weights.size() &&
+        *weights == x.weights && rigidlyMoved(*points, x.points, true))
       return result;
   return nullptr;
 }

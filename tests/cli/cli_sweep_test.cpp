@@ -140,7 +140,9 @@ void expectFindingsShape(const std::string& json, std::size_t measures) {
       for (const auto& jump : f[list]) {
         EXPECT_TRUE(jump["theta"].is_number());
         EXPECT_TRUE(jump["size"].is_number() || jump["size"].is_null());
-        if (jump["size"].is_null()) EXPECT_TRUE(jump.contains("to") || jump.contains("from")) << jump.dump();
+        if (jump["size"].is_null()) {
+          EXPECT_TRUE(jump.contains("to") || jump.contains("from")) << jump.dump();
+        }
       }
     for (const auto& s : f["flat"]) {
       ASSERT_TRUE(s.is_array());

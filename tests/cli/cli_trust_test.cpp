@@ -63,7 +63,9 @@ TEST(CliTrustTest, CoordinatesTooLargeForSquaredCostsExitTwoWithTheRealCause) {
   EXPECT_EQ(std::count(err.begin(), err.end(), '\n'), 1) << err;
   const auto j = nlohmann::json::parse(out);
   for (const auto& m : j["measures"])
-    if (m["status"] == "ok") EXPECT_TRUE(m["value"].is_number() && std::isfinite(m["value"].get<double>())) << m.dump();
+    if (m["status"] == "ok") {
+      EXPECT_TRUE(m["value"].is_number() && std::isfinite(m["value"].get<double>())) << m.dump();
+    }
 }
 
 // Under the mix family A_1 = B, so the debiased Sinkhorn divergence is 0 there [D: S(b,b)=0],

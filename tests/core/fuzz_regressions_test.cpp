@@ -40,7 +40,9 @@ TEST(FuzzRegressionsTest, CsvInputsAreReadOrRefusedCleanly) {
   for (const auto& [file, bytes] : inputs("csv")) {
     const auto r = parseCloudCsv(bytes, file);
     expectOneLineOrValid(r, file);
-    if (r) EXPECT_FALSE(r.value->validate()) << file;
+    if (r) {
+      EXPECT_FALSE(r.value->validate()) << file;
+    }
   }
 }
 
@@ -48,7 +50,9 @@ TEST(FuzzRegressionsTest, NpyInputsAreReadOrRefusedCleanly) {
   for (const auto& [file, bytes] : inputs("npy")) {
     const auto r = parseCloudNpy(bytes, file);
     expectOneLineOrValid(r, file);
-    if (r) EXPECT_FALSE(r.value->validate()) << file;
+    if (r) {
+      EXPECT_FALSE(r.value->validate()) << file;
+    }
   }
 }
 

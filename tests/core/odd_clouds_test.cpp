@@ -58,7 +58,9 @@ TEST(OddCloudsTest, AllPointsCoincident) {
                          "tv", "hellinger"}) {
     const Result r = run(id, a, b);
     ASSERT_EQ(r.status, Status::Ok) << id << ": " << r.message;
-    EXPECT_EQ(r.value, 0.0) << id;
+    // 0 up to the rounding of the coordinates (2.5): projections and sums may leave an ulp,
+    // depending on the optimisation level.
+    EXPECT_NEAR(r.value, 0.0, 1e-12 * 2.5) << id;
   }
 }
 
