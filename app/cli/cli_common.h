@@ -29,7 +29,7 @@ struct InternalError {
 Cloud loadCloud(const std::string& path);
 
 /// The measures named in --measures (all registered ones when absent). Unknown ids are an
-/// InputError; ids of DESIGN.md whose engine is not built yet are an InternalError.
+/// InputError; every id is registered in this build.
 std::vector<const Measure*> selectMeasures(const CliArgs& args);
 
 /// Every --set, checked against the known parameter keys and their ranges.

@@ -1,5 +1,5 @@
 // The three estimators behind the density measures, each returning a complete Result whose
-// details name the estimator and every setting used (DESIGN.md: "Density-based measures name
+// details name the estimator and every setting used (DEVELOPERS.md, Measure conventions: "the density measures name
 // their estimator and its setting in every output").
 #pragma once
 

@@ -1,4 +1,4 @@
-// The density.* parameter group shared by kl_ab, kl_ba, js, tv and hellinger (DESIGN.md):
+// The density.* parameter group shared by kl_ab, kl_ba, js, tv and hellinger (DEVELOPERS.md, Measure conventions):
 // density.estimator (hist|kde|knn), density.bin, density.origin, density.bandwidth, density.k.
 #pragma once
 

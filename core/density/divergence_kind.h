@@ -1,4 +1,4 @@
-// Which f-divergence a density measure reports (DESIGN.md, "Measures and conventions").
+// Which f-divergence a density measure reports (DEVELOPERS.md, "Measure conventions").
 #pragma once
 
 namespace barrow {

@@ -1,6 +1,6 @@
 // The points of a cloud that carry mass. Points of zero weight are not part of the empirical
 // measure, so the kernel, energy, Chamfer and Hausdorff measures and the median heuristic
-// leave them out (DESIGN.md: weights are masses).
+// leave them out (DEVELOPERS.md, Measure conventions: weights are masses).
 #pragma once
 
 #include <Eigen/Core>

@@ -1,4 +1,4 @@
-// The sample-based f-divergences kl_ab, kl_ba, js, tv, hellinger (DESIGN.md; KL and JS in nats), each
+// The sample-based f-divergences kl_ab, kl_ba, js, tv, hellinger (DEVELOPERS.md, Measure conventions; KL and JS in nats), each
 // estimated from the two clouds by a histogram, a Gaussian KDE or (KL only) k nearest
 // neighbours. They share one parameter group, density.* (density/density_settings.h).
 #pragma once

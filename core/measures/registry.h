@@ -1,4 +1,4 @@
-// The table of all measures, in the order DESIGN.md lists them.
+// The table of all measures, in the order of DEVELOPERS.md, Measure conventions.
 #pragma once
 
 #include <memory>
@@ -28,7 +28,7 @@ class MeasureRegistry {
   std::vector<const Measure*> view_;
 };
 
-/// Every measure id DESIGN.md defines, in its order (some may not be registered yet).
+/// Every documented measure id (DEVELOPERS.md, Measure conventions), in its order (some may not be registered yet).
 const std::vector<std::string>& designMeasureIds();
 
 // Each family of measures registers itself here (one definition per family's file).

@@ -21,7 +21,7 @@ struct PlanEntry {
 
 struct Result {
   Status status = Status::InvalidInput;
-  double value = NAN;                    // as defined in DESIGN.md; +inf when Infinite
+  double value = NAN;                    // as defined in DEVELOPERS.md, Measure conventions; +inf when Infinite
   std::string message = "evaluate was not called";
   std::vector<PlanEntry> plan;           // optional (transport measures)
   Eigen::VectorXd u, v;                  // optional dual potentials on A and on B

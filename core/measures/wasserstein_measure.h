@@ -1,4 +1,4 @@
-// The exact Wasserstein measures w1 and w2 (DESIGN.md): W_p between the normalised clouds,
+// The exact Wasserstein measures w1 and w2 (DEVELOPERS.md, Measure conventions): W_p between the normalised clouds,
 // ground cost ‖x − y‖^p, p ∈ {1, 2}; w2 reports sqrt of the optimal cost. Solved by the
 // network simplex of transport/exact_ot.h (exact, certified by pricing every pair).
 // Result: value, u/v (potentials of the cost ‖x − y‖^p, u_i + v_j <= c_ij), the plan

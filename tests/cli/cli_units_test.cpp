@@ -20,7 +20,7 @@ int cli(const std::string& args, std::string* out = nullptr, std::string* err = 
 const std::string kPair =
     " --a " + test::samplesDir() + "/ring_vs_blob/a.csv --b " + test::samplesDir() + "/ring_vs_blob/b.csv";
 
-// [D] The contract (DESIGN.md, second wave): `measure --json` entries carry "unit"; it is the
+// [D] The contract (DEVELOPERS.md, Command-line contract): `measure --json` entries carry "unit"; it is the
 // unit the measure declares for the settings used, so it follows entropic.p and chamfer.squared.
 TEST(CliUnitsTest, JsonEntriesCarryTheUnitOfTheSettingsUsed) {
   for (const std::string& sets : {std::string(), std::string(" --set entropic.p=1 --set chamfer.squared=true")}) {

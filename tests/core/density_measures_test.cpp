@@ -28,7 +28,7 @@ Result run(const char* id, const Cloud& a, const Cloud& b, std::initializer_list
   return evaluateMeasure(*MeasureRegistry::instance().find(id), a, b, req);
 }
 
-// DESIGN.md: the five ids, in its order, one shared parameter group density.*.
+// DEVELOPERS.md, Measure conventions: the five ids, in its order, one shared parameter group density.*.
 TEST(DensityMeasuresTest, AllFiveAreRegisteredWithOneSharedGroup) {
   const auto& reg = MeasureRegistry::instance();
   std::vector<std::string> order;
@@ -74,7 +74,7 @@ TEST(DensityMeasuresTest, BadSettingsAndCloudsBecomeInvalidInputNamingTheCause) 
   EXPECT_EQ(run("kl_ab", a, Cloud("B", Eigen::MatrixX2d(0, 2)), {}).status, Status::InvalidInput);
 }
 
-// DESIGN.md: density measures name their estimator and its settings in every output.
+// DEVELOPERS.md, Measure conventions: density measures name their estimator and its settings in every output.
 TEST(DensityMeasuresTest, EveryResultNamesTheEstimatorAndItsSettings) {
   const Cloud a = blob(200, 0, 3), b = blob(150, 1, 4);
   for (const char* id : kIds) {
@@ -96,7 +96,7 @@ TEST(DensityMeasuresTest, EveryResultNamesTheEstimatorAndItsSettings) {
   }
 }
 
-// Histogram KL with an empty bin is +inf with status infinite (DESIGN.md: +∞ is a legitimate
+// Histogram KL with an empty bin is +inf with status infinite (DEVELOPERS.md, Measure conventions: +∞ is a legitimate
 // value); the others stay finite on the same input.
 TEST(DensityMeasuresTest, InfiniteKlIsAStatusNotALargeNumber) {
   const Cloud a = blob(100, 0, 5), b = blob(100, 6, 6);

@@ -1,7 +1,7 @@
 // Odd but valid clouds: one point, all points coincident, collinear, coordinates near
 // 1e±150 and beyond, weights spanning 1e±300, 10^5 duplicates of one point. Every cheap
 // measure returns the right value (closed forms marked [D], derived from each measure's
-// definition in DESIGN.md, or SciPy) or a non-ok status that names the reason.
+// definition in DEVELOPERS.md (Measure conventions), or SciPy) or a non-ok status that names the reason.
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -66,7 +66,7 @@ TEST(OddCloudsTest, AllPointsCoincident) {
 
 // [D] Collinear: B is A moved by 0.5 along the line, uniform weights. W1 = W2 = 0.5 (a
 // translation), Hausdorff 0.5, Chamfer 0.5 + 0.5; Fréchet: equal (rank-1) covariances, means
-// 0.5 apart. Energy: scipy.stats.energy_distance on the x coordinates (DESIGN.md: in 1-D the
+// 0.5 apart. Energy: scipy.stats.energy_distance on the x coordinates (DEVELOPERS.md, Measure conventions: in 1-D the
 // energy measure is SciPy's).
 TEST(OddCloudsTest, CollinearPoints) {
   const Cloud a = points({{0, 0}, {1, 0}, {2, 0}}), b = points({{0.5, 0}, {1.5, 0}, {2.5, 0}});

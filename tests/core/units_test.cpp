@@ -35,7 +35,7 @@ TEST(UnitsTest, EveryRegisteredMeasureDeclaresAUnitFromTheContractVocabularyWith
   }
 }
 
-// [D] Units as definitions state them (DESIGN.md table; REFERENCES.md "Units").
+// [D] Units as definitions state them (DEVELOPERS.md, Measure conventions; REFERENCES.md "Units").
 TEST(UnitsTest, UnitsFollowTheDefinitionsAndTheirParameters) {
   auto unitOf = [](const std::string& id, std::vector<std::string> sets = {}) {
     ParamSet p;

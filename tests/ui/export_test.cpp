@@ -65,7 +65,7 @@ TEST(ExportTest, SweepCsvFollowsTheCommandLineHeader) {
   ASSERT_TRUE(waitIdle(*w));
   const std::string csv = w->sweep()->toCsv();
   ASSERT_FALSE(csv.empty());
-  // DESIGN.md: theta,<id>,...,d_<id>,...
+  // DEVELOPERS.md, Command-line contract: theta,<id>,...,d_<id>,...
   EXPECT_EQ(csv.substr(0, csv.find('\n')), "theta,js,tv,d_js,d_tv");
   std::size_t rows = 0;
   for (char c : csv) rows += c == '\n';

@@ -1,5 +1,5 @@
 // The Sweep from the window: a running sweep can be cancelled; clicking the θ cursor moves A
-// on the Field (the shift family: A_θ = A + θ·u, DESIGN.md) and the change column follows;
+// on the Field (the shift family: A_θ = A + θ·u, core/families/family_map.h) and the change column follows;
 // releasing the cursor shows A as drawn again.
 #include <gtest/gtest.h>
 
