@@ -100,31 +100,45 @@ std::vector<Row*> sortedRows(std::vector<std::unique_ptr<Row>>& rows) {
 }
 
 /// Midpoints of the intervals some series finds jump-like and wider than `tol`, at most
-/// `room` of them. The budget is shared fairly: each measure's suspects are ranked by relative
-/// step, and the measure that has spent least takes the next point; a measure past its fair
-/// share (budget / measures with suspects) waits while another with suspects is under its
-/// own, so one measure's many suspects (a histogram crossing many bin edges) cannot starve
-/// another's single one. `spent` (per measure, kept across rounds) is updated.
+/// `room` of them. The budget is shared fairly: the measure that has spent least takes the
+/// next point, and a measure past its fair share (budget / measures with suspects) waits while
+/// another with suspects is under its own, so one measure's many suspects (a histogram crossing
+/// many bin edges) cannot starve another's single one. Within a measure the work is depth
+/// first: suspects already narrowed come first, and a round takes only as many suspects as the
+/// measure's remaining points can bisect all the way down to `tol` — a few confirmed jumps say
+/// more than many half-bisected ones. `spent` (per measure, kept across rounds) is updated.
 std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t measures, const StepRule& rule,
                                      double tol, std::size_t room, int budget, std::vector<int>& spent) {
   std::vector<double> theta(rows.size());
   for (std::size_t k = 0; k < rows.size(); ++k) theta[k] = rows[k]->theta;
-  std::vector<std::vector<std::pair<double, double>>> wanted(measures);  // per measure: (priority, midpoint)
+  struct Suspect {
+    double width, priority, mid;
+  };
+  std::vector<std::vector<Suspect>> wanted(measures);
   std::vector<double> value(rows.size());
   for (std::size_t j = 0; j < measures; ++j) {
     for (std::size_t k = 0; k < rows.size(); ++k) value[k] = rows[k]->cells[j].value;
     const double range = finiteRange(value);
     for (const StepInterval& s : classifySteps(theta, value, rule)) {
-      if (!s.jumpLike || theta[s.right] - theta[s.left] <= tol) continue;
+      const double width = theta[s.right] - theta[s.left];
+      if (!s.jumpLike || width <= tol) continue;
       const double priority = std::isfinite(s.step) ? std::abs(s.step) / std::max(range, 1e-300) : 2.0;
-      wanted[j].push_back({priority, 0.5 * (theta[s.left] + theta[s.right])});
+      wanted[j].push_back({width, priority, 0.5 * (theta[s.left] + theta[s.right])});
     }
-    std::stable_sort(wanted[j].begin(), wanted[j].end(), [](auto& x, auto& y) { return x.first > y.first; });
+    std::stable_sort(wanted[j].begin(), wanted[j].end(), [](const Suspect& x, const Suspect& y) {
+      return x.width != y.width ? x.width < y.width : x.priority > y.priority;
+    });
   }
   spent.resize(measures, 0);
   int sharing = 0;
   for (std::size_t j = 0; j < measures; ++j) sharing += !wanted[j].empty() || spent[j] > 0;
   const int share = std::max(1, budget / std::max(1, sharing));
+  for (std::size_t j = 0; j < measures; ++j) {
+    if (wanted[j].empty()) continue;
+    const int levels = std::max(1, int(std::ceil(std::log2(wanted[j].back().width / tol))));
+    const int points = spent[j] < share ? share - spent[j] : int(room);
+    wanted[j].resize(std::min(wanted[j].size(), std::size_t(std::max(1, points / levels))));
+  }
   std::vector<std::size_t> next(measures, 0);
   std::vector<double> out;
   // A measure under its share with suspects left keeps the others at their share this round:
@@ -139,7 +153,7 @@ std::vector<double> refinementPoints(const std::vector<Row*>& rows, std::size_t 
       if (pick == measures || spent[j] < spent[pick]) pick = j;
     }
     if (pick == measures) break;
-    const double mid = wanted[pick][next[pick]++].second;
+    const double mid = wanted[pick][next[pick]++].mid;
     if (std::find(out.begin(), out.end(), mid) == out.end()) {
       out.push_back(mid);
       ++spent[pick];
