@@ -52,8 +52,8 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   // update, which is most of the cost of a table refresh while points are dragged.
   const QFontMetrics fm(font());
   const int widths[kColumns] = {0, fm.horizontalAdvance("0.000000  "), fm.horizontalAdvance("+0.000000  "),
-                                fm.horizontalAdvance("dimensionless  "),
-                                fm.horizontalAdvance("updating…  "), fm.horizontalAdvance("000.0 ms  ")};
+                                fm.horizontalAdvance("length^0.5   "),  // "dimensionless" elides readably
+                                fm.horizontalAdvance("infinite   "), fm.horizontalAdvance("000.0 ms ")};
   for (int c = kValue; c < kColumns; ++c) {
     tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);
     tree_->header()->resizeSection(c, widths[c]);
@@ -119,10 +119,11 @@ void MeasuresPanel::build() {
   for (const Measure* m : measures_) {
     auto* item = new QTreeWidgetItem(tree_);
     const QString id = QString::fromStdString(m->id());
-    item->setText(kName, QString::fromStdString(m->displayName()) + "  [" + id + "]");
+    // The id first: it is short and unique, so an elided name still tells w1 from w2.
+    item->setText(kName, id + QStringLiteral(" — ") + QString::fromStdString(m->displayName()));
     item->setData(kName, kIdRole, id);
     item->setIcon(kName, measureIcon(m->id()));
-    item->setToolTip(kName, QString::fromStdString(m->formula()));
+    item->setToolTip(kName, QString::fromStdString(m->displayName() + "\n" + m->formula()));
     item->setFlags(Qt::ItemIsEnabled | Qt::ItemIsSelectable | Qt::ItemIsUserCheckable);
     item->setCheckState(kName, Qt::Checked);
     item->setTextAlignment(kValue, Qt::AlignRight | Qt::AlignVCenter);

@@ -33,7 +33,8 @@ QString valueText(const Result& r) {
 QString changeText(const Result& now, const Result& ref) {
   if (!now.usable() || !ref.usable() || std::isnan(now.value) || std::isnan(ref.value)) return QStringLiteral("—");
   if (std::isinf(now.value) || std::isinf(ref.value)) {
-    if (std::isinf(now.value) && std::isinf(ref.value)) return QStringLiteral("0");
+    // +∞ at both: the difference is undefined, not 0 (the measure cannot see the change).
+    if (std::isinf(now.value) && std::isinf(ref.value)) return QStringLiteral("∞ → ∞");
     return std::isinf(now.value) ? QStringLiteral("+∞") : QStringLiteral("−∞");
   }
   const double d = now.value - ref.value;

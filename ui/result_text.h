@@ -10,7 +10,7 @@
 namespace barrow::ui {
 
 QString valueText(const Result& r);               // "0.4213", "∞", "—"
-QString changeText(const Result& now, const Result& ref);  // "+0.0132", "-1.54e-05", "0", "+∞"
+QString changeText(const Result& now, const Result& ref);  // "+0.0132", "-1.54e-05", "0", "+∞", "∞ → ∞"
 QString statusText(const Result& r);              // "ok", "not converged (marginal error 3e-4)"
 QString statusTooltip(const Result& r);           // the full message and iteration count
 QString secondsText(double s);                    // "0.8 ms", "1.23 s"

@@ -88,3 +88,18 @@ TEST(WindowTrustTest, OpenPairLoadsBothSides) {
 
 }  // namespace
 }  // namespace barrow::ui
+
+#include "result_text.h"
+
+namespace barrow::ui {
+namespace {
+
+// A change between two infinite values is undefined; showing 0 would say "no change" [D].
+TEST(WindowTrustTest, ChangeBetweenTwoInfinitiesIsNotZero) {
+  EXPECT_EQ(changeText(Result::ok(INFINITY), Result::ok(INFINITY)).toStdString(), "∞ → ∞");
+  EXPECT_EQ(changeText(Result::ok(INFINITY), Result::ok(1.0)).toStdString(), "+∞");
+  EXPECT_EQ(changeText(Result::ok(2.0), Result::ok(2.0)).toStdString(), "0");
+}
+
+}  // namespace
+}  // namespace barrow::ui
