@@ -62,11 +62,12 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
     name->setData(Qt::UserRole, QString::fromStdString(f.id));
     name->setIcon(measureIcon(f.id));
     if (m) name->setToolTip(QString::fromStdString(m->displayName()));
-    QString verdict = !f.jumps.empty()       ? tr("%n jump(s)", "", int(f.jumps.size()))
+    QString verdict = f.infiniteEverywhere   ? tr("+∞ throughout")
+                      : !f.jumps.empty()       ? tr("%n jump(s)", "", int(f.jumps.size()))
                       : !f.unresolved.empty() ? tr("unresolved")
                                               : tr("continuous");
     if (!f.jumps.empty() && !f.unresolved.empty()) verdict += tr(", unresolved");
-    if (!f.flat.empty()) verdict += tr(", flat");
+    if (!f.flat.empty() && !f.infiniteEverywhere) verdict += tr(", flat");
     auto* v = new QTableWidgetItem(verdict);
     v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
     v->setToolTip(tr("Lipschitz estimate %1").arg(f.lipschitz, 0, 'g', 3));

@@ -1,7 +1,9 @@
 #include "result_text.h"
 
 #include <QObject>
+#include <algorithm>
 #include <cmath>
+#include <limits>
 #include <optional>
 #include <sstream>
 
@@ -38,7 +40,10 @@ QString changeText(const Result& now, const Result& ref) {
     return std::isinf(now.value) ? QStringLiteral("+∞") : QStringLiteral("−∞");
   }
   const double d = now.value - ref.value;
-  if (d == 0) return QStringLiteral("0");
+  // A difference at rounding level of the values themselves is no change (2.2e-16 on ln 2
+  // would read as a tiny real effect).
+  if (std::abs(d) <= 8 * std::numeric_limits<double>::epsilon() * std::max(std::abs(now.value), std::abs(ref.value)))
+    return QStringLiteral("0");
   // Three significant digits: a change is read for its size and sign, and "+1.54e-05" fits
   // the column where five digits would be cut off.
   return (d > 0 ? "+" : "") + QString::number(d, 'g', 3);

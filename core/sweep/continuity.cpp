@@ -116,6 +116,7 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, d
     f.lipschitz = NAN;
     f.flat = {{theta.front(), theta.back()}};
     facts.infiniteEverywhere = true;
+    f.infiniteEverywhere = true;
     f.summary = describeFinding(f, facts);
     return f;
   }

@@ -22,6 +22,7 @@ struct Finding {
   std::vector<Jump> jumps;   // confirmed (see judgeSteps in step_rule.h)
   std::vector<Jump> unresolved;  // jump-like, but refinement did not reach the resolution
   double resolution = 0.0;   // θ width jumps were confirmed at; 0 = no refinement
+  bool infiniteEverywhere = false;  // +∞ at every θ that did not fail
   std::vector<std::pair<double, double>> flat;  // [θ_start, θ_end] stretches with no gradient
   double lipschitz = 0.0;  // max |ΔD/Δθ| between neighbours, jumps and unresolved suspects excluded
   bool monotone = true;  // D grows (weakly) with distance from its best θ on both sides

@@ -166,6 +166,7 @@ TEST(ContinuityTest, InfiniteEverywhereIsSaidPlainly) {
   const Finding f = findContinuity(r)[0];
   EXPECT_TRUE(f.jumps.empty());
   EXPECT_EQ(f.summary, "kl_ab is +∞ at every θ of the sweep: it gives no gradient anywhere");
+  EXPECT_TRUE(f.infiniteEverywhere);
 }
 
 // A jump to +∞ keeps its direction in JSON, and one from +∞ too [D].

@@ -99,6 +99,9 @@ TEST(WindowTrustTest, ChangeBetweenTwoInfinitiesIsNotZero) {
   EXPECT_EQ(changeText(Result::ok(INFINITY), Result::ok(INFINITY)).toStdString(), "∞ → ∞");
   EXPECT_EQ(changeText(Result::ok(INFINITY), Result::ok(1.0)).toStdString(), "+∞");
   EXPECT_EQ(changeText(Result::ok(2.0), Result::ok(2.0)).toStdString(), "0");
+  // ln 2 computed two ways differs in the last bit: that is rounding, not a change.
+  EXPECT_EQ(changeText(Result::ok(0.69314718055994529), Result::ok(0.69314718055994506)).toStdString(), "0");
+  EXPECT_EQ(changeText(Result::ok(0.6932), Result::ok(0.6931)).toStdString(), "+0.0001");
 }
 
 }  // namespace
