@@ -99,33 +99,21 @@ struct Instance {
   std::vector<std::string> sets;
 };
 
-Cloud randomCloud(int n, unsigned seed, Eigen::Vector2d mean, Eigen::Vector2d spread, bool weighted) {
-  std::mt19937 rng(seed);
-  std::normal_distribution<double> g(0.0, 1.0);
-  std::uniform_real_distribution<double> u(0.2, 2.0);
-  Eigen::MatrixX2d p(n, 2);
-  Eigen::VectorXd w = Eigen::VectorXd::Ones(n);
-  for (int i = 0; i < n; ++i) {
-    p.row(i) << mean.x() + spread.x() * g(rng), mean.y() + spread.y() * g(rng);
-    if (weighted) w(i) = u(rng);
-  }
-  return Cloud("c", p, w);
-}
 
 std::vector<Instance> instances() {
   std::vector<Instance> out;
   // The two instances where the earlier rectangle rule in y missed its own estimate: 30 × 600
   // random points (default Scott bandwidth), and 5 × 5 with duplicates within and across.
-  out.push_back({"30x600", randomCloud(30, 1, {0, 0}, {1, 1}, false), randomCloud(600, 2, {0.4, -0.2}, {1.3, 0.9}, false), {}});
+  out.push_back({"30x600", test::gaussianCloud(30, 1, {0, 0}, {1, 1}, false), test::gaussianCloud(600, 2, {0.4, -0.2}, {1.3, 0.9}, false), {}});
   Eigen::MatrixX2d pa(5, 2), pb(5, 2);
   pa << 0, 0, 0, 0, 1, 0.5, 1, 0.5, -0.5, 1;
   pb << 0, 0, 1, 0.5, 0.3, -0.4, 0.3, -0.4, 2, 1;
   out.push_back({"5x5-duplicates", Cloud("A", pa), Cloud("B", pb), {}});
-  out.push_back({"7x5-weighted", randomCloud(7, 3, {0, 0}, {1, 0.6}, true), randomCloud(5, 4, {0.8, 0.3}, {1, 1}, true),
+  out.push_back({"7x5-weighted", test::gaussianCloud(7, 3, {0, 0}, {1, 0.6}, true), test::gaussianCloud(5, 4, {0.8, 0.3}, {1, 1}, true),
                  {"density.bandwidth=0.3,0.2"}});
-  out.push_back({"40x25-silverman", randomCloud(40, 5, {0, 0}, {2, 0.5}, true), randomCloud(25, 6, {0.5, 0.5}, {1, 1}, true),
+  out.push_back({"40x25-silverman", test::gaussianCloud(40, 5, {0, 0}, {2, 0.5}, true), test::gaussianCloud(25, 6, {0.5, 0.5}, {1, 1}, true),
                  {"density.bandwidth=silverman"}});
-  out.push_back({"60x60-narrow", randomCloud(60, 7, {0, 0}, {1, 1}, false), randomCloud(60, 8, {0.1, 0}, {1, 1}, false),
+  out.push_back({"60x60-narrow", test::gaussianCloud(60, 7, {0, 0}, {1, 1}, false), test::gaussianCloud(60, 8, {0.1, 0}, {1, 1}, false),
                  {"density.bandwidth=0.08"}});
   return out;
 }

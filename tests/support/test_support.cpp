@@ -110,13 +110,18 @@ std::optional<Eigen::MatrixX2d> analyticGradientA(const Measure& m, const Cloud&
 }
 
 Cloud gaussianCloud(int n, unsigned seed, double offset, double spread, bool randomWeights) {
+  return gaussianCloud(n, seed, Eigen::Vector2d(offset, offset), Eigen::Vector2d(spread, spread), randomWeights);
+}
+
+Cloud gaussianCloud(int n, unsigned seed, const Eigen::Vector2d& mean, const Eigen::Vector2d& spread,
+                    bool randomWeights) {
   std::mt19937 rng(seed);
-  std::normal_distribution<double> g(0.0, spread);
+  std::normal_distribution<double> g(0.0, 1.0);
   std::uniform_real_distribution<double> w(0.1, 1.0);
   Eigen::MatrixX2d p(n, 2);
   Eigen::VectorXd wt = Eigen::VectorXd::Ones(n);
   for (int i = 0; i < n; ++i) {
-    p.row(i) << offset + g(rng), offset + g(rng);
+    p.row(i) << mean.x() + spread.x() * g(rng), mean.y() + spread.y() * g(rng);
     if (randomWeights) wt(i) = w(rng);
   }
   return Cloud("c", p, wt);

@@ -35,6 +35,9 @@ EvalRequest entropicRequest(const std::string& group, double epsilon, int p, dou
 /// n points with both coordinates offset + N(0, spread²) and weights uniform in [0.1, 1)
 /// (or all 1 when !randomWeights), from std::mt19937(seed): reproducible test data.
 Cloud gaussianCloud(int n, unsigned seed, double offset = 0.0, double spread = 1.0, bool randomWeights = true);
+/// The same with a mean and a spread per axis (x: N(mean.x, spread.x²), y likewise).
+Cloud gaussianCloud(int n, unsigned seed, const Eigen::Vector2d& mean, const Eigen::Vector2d& spread,
+                    bool randomWeights);
 
 /// A cloud as Python source "np.array([[x,y],...])" with full precision.
 std::string pyPoints(const Cloud& c);
