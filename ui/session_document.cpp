@@ -9,17 +9,11 @@ bool sessionCloudsEqual(const Cloud& x, const Cloud& y) {
          x.weights.size() == y.weights.size() && x.points == y.points && x.weights == y.weights;
 }
 
-namespace {
-
-bool sameCloud(const Cloud& x, const Cloud& y) { return sessionCloudsEqual(x, y); }
-
-bool sameSweep(const SweepSettings& x, const SweepSettings& y) {
+bool sessionSweepsEqual(const SweepSettings& x, const SweepSettings& y) {
   return x.family == y.family && x.direction == y.direction && x.center == y.center &&
          x.from == y.from && x.to == y.to && x.steps == y.steps && x.reference == y.reference &&
          x.measures == y.measures;
 }
-
-}  // namespace
 
 SessionDocument::SessionDocument(QObject* parent) : QObject(parent) {
   undo_.setUndoLimit(500);
@@ -45,9 +39,9 @@ void SessionDocument::setPath(const QString& p) {
 void SessionDocument::markSaved() { undo_.setClean(); }
 
 void SessionDocument::apply(const Session& s) {
-  const bool clouds = !sameCloud(s.a, session_.a) || !sameCloud(s.b, session_.b);
+  const bool clouds = !sessionCloudsEqual(s.a, session_.a) || !sessionCloudsEqual(s.b, session_.b);
   const bool params = s.params.values() != session_.params.values();
-  const bool sweep = !sameSweep(s.sweep, session_.sweep);
+  const bool sweep = !sessionSweepsEqual(s.sweep, session_.sweep);
   const bool selected = s.selected != session_.selected;
   session_ = s;
   if (clouds) emit cloudsChanged();
@@ -81,7 +75,7 @@ void SessionDocument::setParam(const std::string& key, const std::string& value)
 }
 
 void SessionDocument::setSweep(const SweepSettings& sw, const QString& text) {
-  if (sameSweep(sw, session_.sweep)) return;
+  if (sessionSweepsEqual(sw, session_.sweep)) return;
   Session s = session_;
   s.sweep = sw;
   push(s, text);
@@ -109,7 +103,7 @@ void SessionDocument::commitPreview(const QString& text) {
   if (!previewBase_) return;
   Session before = std::move(*previewBase_);
   previewBase_.reset();
-  if (sameCloud(before.a, session_.a) && sameCloud(before.b, session_.b)) return;
+  if (sessionCloudsEqual(before.a, session_.a) && sessionCloudsEqual(before.b, session_.b)) return;
   undo_.push(new SessionEditCommand(this, std::move(before), session_, text, true));
 }
 

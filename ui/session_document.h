@@ -15,6 +15,8 @@ enum class Which { A, B };
 
 /// Same name, points and weights (sizes checked first).
 bool sessionCloudsEqual(const Cloud& x, const Cloud& y);
+/// Same family, direction, pivot, range, steps, reference and measures.
+bool sessionSweepsEqual(const SweepSettings& x, const SweepSettings& y);
 
 class SessionDocument : public QObject {
   Q_OBJECT

@@ -234,12 +234,9 @@ bool SweepPanel::resultsCurrent() const {
   if (!hasRun_) return true;  // nothing shown yet, nothing out of date
   const Session& s = doc_->session();
   SweepSettings now = s.sweep;
-  now.measures = measureIds();
-  const SweepSettings& then = runSettings_;
+  now.measures = measureIds();  // as run() fills them in
   return sessionCloudsEqual(s.a, runA_) && sessionCloudsEqual(s.b, runB_) &&
-         s.params.values() == runParams_.values() && now.family == then.family && now.direction == then.direction &&
-         now.center == then.center && now.from == then.from && now.to == then.to && now.steps == then.steps &&
-         now.referenceTheta() == then.referenceTheta() && now.measures == then.measures;
+         s.params.values() == runParams_.values() && sessionSweepsEqual(now, runSettings_);
 }
 
 void SweepPanel::updateStale() {
