@@ -16,12 +16,22 @@ void ParamSet::setPair(const std::string& key, double x, double y) {
   values_[key] = shortestText(x) + "," + shortestText(y);
 }
 
-std::optional<double> parseNumber(const std::string& text) {
+namespace {
+
+// The text a number is read from: blanks around it and one leading '+' dropped.
+std::string numberText(const std::string& text) {
   std::string t = text;
   t.erase(0, t.find_first_not_of(" \t"));
   t.erase(t.find_last_not_of(" \t") + 1);
+  if (!t.empty() && t[0] == '+') t.erase(0, 1);
+  return t;
+}
+
+}  // namespace
+
+std::optional<double> parseNumber(const std::string& text) {
+  const std::string t = numberText(text);
   if (t.empty()) return std::nullopt;
-  if (t[0] == '+') t.erase(0, 1);
   double v = 0;
   const auto [end, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
   if (ec != std::errc() || end != t.data() + t.size()) {
@@ -37,10 +47,7 @@ std::optional<double> parseNumber(const std::string& text) {
 }
 
 std::string notNumberReason(const std::string& text) {
-  std::string t = text;
-  t.erase(0, t.find_first_not_of(" \t"));
-  t.erase(t.find_last_not_of(" \t") + 1);
-  if (!t.empty() && t[0] == '+') t.erase(0, 1);
+  const std::string t = numberText(text);
   double v = 0;
   const auto [end, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
   if (ec == std::errc::result_out_of_range && end == t.data() + t.size())
