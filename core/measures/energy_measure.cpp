@@ -11,9 +11,7 @@ namespace barrow {
 Result EnergyMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   // All coordinates tiny or huge: evaluate at unit scale (measures/unit_scale.h); the energy
   // distance is homogeneous of degree ½, its square ("energy", a mean of distances) of degree 1.
-  if (auto r = evaluateAtUnitScale(a, b, ctx, [this](const Cloud& x, const Cloud& y, const EvalContext& c) {
-        return evaluate(x, y, c);
-      }, 0.5, {{"energy", 1}}))
+  if (auto r = evaluateAtUnitScale(*this, a, b, ctx, {{"energy", 1}}))
     return *r;
   const SupportPoints sa = supportOf(a), sb = supportOf(b);
   const DiscrepancySums s = discrepancySums(sa, sb, {PairKernel::Distance, 0.0}, WorkSlice{ctx.control});

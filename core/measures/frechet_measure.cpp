@@ -27,9 +27,7 @@ std::string singularWarning(const GaussianFit& g, const char* name) {
 Result FrechetMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   // All coordinates tiny or huge: evaluate at unit scale (measures/unit_scale.h); the value
   // is homogeneous of degree 1, fd2 of degree 2 (the fitted moments stay in that unit).
-  if (auto r = evaluateAtUnitScale(a, b, ctx, [this](const Cloud& x, const Cloud& y, const EvalContext& c) {
-        return evaluate(x, y, c);
-      }, 1.0, {{"fd2", 2}}))
+  if (auto r = evaluateAtUnitScale(*this, a, b, ctx, {{"fd2", 2}}))
     return *r;
   const GaussianFit ga = fitGaussian(supportOf(a)), gb = fitGaussian(supportOf(b));
   const double fd2 = gaussianW2Squared(ga, gb);

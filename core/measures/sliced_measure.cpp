@@ -84,9 +84,7 @@ std::vector<ParamSpec> SlicedMeasure::params() const {
 Result SlicedMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   // All coordinates tiny or huge: evaluate at unit scale (measures/unit_scale.h); sliced W_p
   // is homogeneous of degree 1.
-  if (auto r = evaluateAtUnitScale(a, b, ctx, [this](const Cloud& x, const Cloud& y, const EvalContext& c) {
-        return evaluate(x, y, c);
-      }))
+  if (auto r = evaluateAtUnitScale(*this, a, b, ctx))
     return *r;
   const SlicedSettings s = readSettings(ctx.params);
   std::vector<double> perDirection(s.directions);

@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cmath>
 
+#include "measures/units.h"
+
 namespace barrow {
 
 double extremeCoordinateUnit(const Cloud& a, const Cloud& b) {
@@ -20,14 +22,16 @@ Cloud dividedBy(const Cloud& c, double unit) {
   return out;
 }
 
-std::optional<Result> evaluateAtUnitScale(const Cloud& a, const Cloud& b, const EvalContext& ctx,
-                                          const EvalFn& eval, double valueDegree,
+std::optional<Result> evaluateAtUnitScale(const Measure& m, const Cloud& a, const Cloud& b, const EvalContext& ctx,
                                           std::initializer_list<std::pair<const char*, int>> detailDegrees) {
   const double unit = extremeCoordinateUnit(a, b);
   if (unit == 1.0) return std::nullopt;
+  const std::optional<double> degree = lengthExponent(m.unit(ctx.params));
+  if (!degree) return Result::invalid(m.id() + ": its value is not a power of length, so it cannot be rescaled");
+  const double valueDegree = *degree;
   EvalContext inner = ctx;
   inner.warm = nullptr;
-  Result r = eval(dividedBy(a, unit), dividedBy(b, unit), inner);
+  Result r = m.evaluate(dividedBy(a, unit), dividedBy(b, unit), inner);
   if (!r.usable()) return r;
   // Multiplying back can overflow (a true value beyond 1.8e308) or underflow: say so.
   const double inUnits = r.value;

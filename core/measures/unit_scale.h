@@ -9,7 +9,6 @@
 // the value multiplied back by unit^k. [D] the degrees follow from each definition.
 #pragma once
 
-#include <functional>
 #include <initializer_list>
 #include <utility>
 
@@ -26,12 +25,12 @@ double extremeCoordinateUnit(const Cloud& a, const Cloud& b);
 /// A copy of c with every coordinate divided by `unit`.
 Cloud dividedBy(const Cloud& c, double unit);
 
-/// When extremeCoordinateUnit(a, b) != 1: runs `eval` on the divided copies (no warm start:
-/// a warm state holds numbers in the other unit), multiplies the value by unit^valueDegree
-/// and each listed detail by unit^degree, and records the unit in details. nullopt otherwise.
-using EvalFn = std::function<Result(const Cloud&, const Cloud&, const EvalContext&)>;
-std::optional<Result> evaluateAtUnitScale(const Cloud& a, const Cloud& b, const EvalContext& ctx,
-                                          const EvalFn& eval, double valueDegree = 1.0,
+/// When extremeCoordinateUnit(a, b) != 1: evaluates m on the divided copies (no warm start:
+/// a warm state holds numbers in the other unit), multiplies the value by unit^k — k the
+/// exponent of m's own unit, "length^k" (Measure::unit), so the degree is stated once — and
+/// each listed detail by unit^degree, and records the unit in details. nullopt otherwise.
+/// Pre: m's value is a power of length and m has no length-valued parameter.
+std::optional<Result> evaluateAtUnitScale(const Measure& m, const Cloud& a, const Cloud& b, const EvalContext& ctx,
                                           std::initializer_list<std::pair<const char*, int>> detailDegrees = {});
 
 }  // namespace barrow

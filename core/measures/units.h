@@ -9,6 +9,7 @@
 // beside it (Measure::unitRule) and printed by `barrow-cli measure --help`.
 #pragma once
 
+#include <optional>
 #include <string>
 
 namespace barrow {
@@ -23,6 +24,10 @@ inline constexpr const char* kUnitDimensionless = "dimensionless";
 
 /// "length" for 1, "length^2" for 2, "length^0.5" for 0.5 (shortest decimal exponent).
 std::string lengthPower(double exponent);
+
+/// The exponent k of a unit "length^k" ("length": 1); nullopt for units without length
+/// (nats, probability, dimensionless). The inverse of lengthPower.
+std::optional<double> lengthExponent(const std::string& unit);
 
 /// The unit of m's value under the user's settings (defaults filled; invalid settings fall
 /// back to the defaults, so the answer is always the unit of some valid configuration).

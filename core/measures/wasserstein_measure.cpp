@@ -28,9 +28,7 @@ std::string WassersteinMeasure::formula() const {
 Result WassersteinMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   // All coordinates tiny or huge: solve at unit scale (measures/unit_scale.h), W_p being
   // homogeneous of degree 1. The duality gap is in cost units (length^p).
-  if (auto r = evaluateAtUnitScale(a, b, ctx, [this](const Cloud& x, const Cloud& y, const EvalContext& c) {
-        return evaluate(x, y, c);
-      }, 1.0, {{"duality_gap", p_}}))
+  if (auto r = evaluateAtUnitScale(*this, a, b, ctx, {{"duality_gap", p_}}))
     return *r;
   ExactOtOptions o;
   o.p = p_;

@@ -105,3 +105,17 @@ TEST(UnitsTest, ScalingTheCoordinatesScalesEachValueByItsDeclaredPowerOfLength) 
 
 }  // namespace
 }  // namespace barrow
+
+namespace barrow {
+namespace {
+
+// lengthExponent inverts lengthPower, and units without length have no exponent [D].
+TEST(UnitsTest, LengthExponentInvertsLengthPower) {
+  for (double k : {1.0, 2.0, 0.5, 1.5}) EXPECT_EQ(lengthExponent(lengthPower(k)), k) << k;
+  EXPECT_FALSE(lengthExponent(kUnitNats));
+  EXPECT_FALSE(lengthExponent(kUnitDimensionless));
+  EXPECT_FALSE(lengthExponent("length^x"));
+}
+
+}  // namespace
+}  // namespace barrow
