@@ -50,14 +50,20 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
       << " nodes the integration grid would get fewer than 0.01 nodes per bandwidth";
     return Result::invalid(m.str());
   }
-  const ExactLogs exact{kind == DivergenceKind::KlBA, kind == DivergenceKind::KlAB};
-  const KdePairGrid pair = evaluateKdePair(a, b, bw.s, opt, exact, ctx.control);
-  bool cancelled = pair.cancelled;
+  // TV integrates the exact KDEs row by row (kde_tv_rows.h) and needs no node grid; the other
+  // divergences integrate on the grid of both densities.
+  KdePairGrid pair;
   KdeIntegral in;
   KdeTvStats tv;
-  if (!cancelled)
-    in = kind == DivergenceKind::Tv ? kdeTotalVariation(a, b, pair, opt.window, ctx.control, &cancelled, &tv)
-                                    : integrateKdeDivergence(pair, kind);
+  bool cancelled = false;
+  if (kind == DivergenceKind::Tv) {
+    in = kdeTotalVariation(a, b, bw.s, opt.window, ctx.control, &cancelled, &tv);
+  } else {
+    const ExactLogs exact{kind == DivergenceKind::KlBA, kind == DivergenceKind::KlAB};
+    pair = evaluateKdePair(a, b, bw.s, opt, exact, ctx.control);
+    cancelled = pair.cancelled;
+    if (!cancelled) in = integrateKdeDivergence(pair, kind);
+  }
   if (cancelled) {
     Result r;
     r.status = Status::Cancelled;
@@ -66,26 +72,27 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
     return r;
   }
   const KdeGrid& g = pair.grid;
-  d["grid_size"] = {g.x.count, g.y.count};
-  d["grid_step"] = {g.x.step, g.y.step};
-  d["grid_origin"] = {g.x.start, g.y.start};
-  d["nodes_per_bandwidth"] = g.nodesPerBandwidth;
-  d["integration"] = kind == DivergenceKind::Tv
-                         ? "x exact between the crossings of f_A and f_B (Newton-refined), y by adaptive "
-                           "Gauss-Kronrod 7/15; error estimate = sum |K15 - G7| over the panels + outside-mass "
-                           "tail (an estimate)"
-                         : "rectangle rule on the grid nodes; error estimate (not a bound) = |I(h) - I(2h)| + "
-                           "outside-mass tail";
   if (kind == DivergenceKind::Tv) {
+    d["integration"] = "x exact between the crossings of f_A and f_B (Newton-refined), y by adaptive "
+                       "Gauss-Kronrod 7/15; error estimate = sum |K15 - G7| over the panels + outside-mass "
+                       "tail (an estimate)";
     d["tv_panels"] = tv.panels;
     d["tv_rows"] = tv.rows;
     d["tv_hidden_crossing_pairs"] = tv.hiddenPairs;
+    d["nodes_per_bandwidth"] = tv.nodesPerBandwidth;
     if (tv.panelLimitHit) d["tv_panel_limit_hit"] = true;
+  } else {
+    d["grid_size"] = {g.x.count, g.y.count};
+    d["grid_step"] = {g.x.step, g.y.step};
+    d["grid_origin"] = {g.x.start, g.y.start};
+    d["nodes_per_bandwidth"] = g.nodesPerBandwidth;
+    d["integration"] = "rectangle rule on the grid nodes; error estimate (not a bound) = |I(h) - I(2h)| + "
+                       "outside-mass tail";
+    d["exact_nodes"] = pair.exactNodes;
   }
   d["error_estimate"] = in.errorEstimate;
   d["coarse_value"] = in.coarseValue;
   d["mass_on_grid"] = {in.massA, in.massB};
-  d["exact_nodes"] = pair.exactNodes;
 
   Result r = Result::ok(in.value);
   std::string note = bw.note;
@@ -93,9 +100,13 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
     r.status = Status::NotConverged;
     std::ostringstream m;
     m.precision(3);
-    m << "integration error estimate " << in.errorEstimate << " is large: the grid (" << g.x.count << " x "
-      << g.y.count << " nodes, " << g.nodesPerBandwidth << " per bandwidth) is too coarse for bandwidth ("
-      << bw.s.x() << ", " << bw.s.y() << ") over this extent; use a larger density.bandwidth";
+    m << "integration error estimate " << in.errorEstimate << " is large: ";
+    if (kind == DivergenceKind::Tv)
+      m << "the row integration stopped at its budget of " << tv.panels << " panels";
+    else
+      m << "the grid (" << g.x.count << " x " << g.y.count << " nodes, " << g.nodesPerBandwidth
+        << " per bandwidth) is too coarse";
+    m << " for bandwidth (" << bw.s.x() << ", " << bw.s.y() << ") over this extent; use a larger density.bandwidth";
     note = note.empty() ? m.str() : m.str() + "; " + note;
   }
   r.message = note;

@@ -286,11 +286,10 @@ struct Panel {
 
 }  // namespace
 
-KdeIntegral kdeTotalVariation(const Cloud& a, const Cloud& b, const KdePairGrid& grid, double window,
+KdeIntegral kdeTotalVariation(const Cloud& a, const Cloud& b, const Eigen::Vector2d& s, double window,
                               const RunControl* ctl, bool* cancelled, KdeTvStats* stats) {
   *cancelled = false;
   KdeTvStats st;
-  const Eigen::Vector2d s = grid.s;
   const Points pts = pointsOf(a, b);
   GridAxis nodes;
   nodes.start = pts.xmin - kMargin * s.x();

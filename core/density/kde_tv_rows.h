@@ -38,10 +38,10 @@ struct KdeTvStats {
 };
 
 /// The TV value, the 7-point Gauss sum as its coarse counterpart, the error estimate and the
-/// masses of the two KDEs over the integrated rows. `grid` supplies the bandwidth s; kernels
+/// masses of the two KDEs over the integrated rows, for the diagonal bandwidth s; kernels
 /// are cut at `window` bandwidths (below e^{-window²/2} of their peak). `cancelled` is set
 /// when `ctl` asked to stop.
-KdeIntegral kdeTotalVariation(const Cloud& a, const Cloud& b, const KdePairGrid& grid, double window,
+KdeIntegral kdeTotalVariation(const Cloud& a, const Cloud& b, const Eigen::Vector2d& s, double window,
                               const RunControl* ctl, bool* cancelled, KdeTvStats* stats = nullptr);
 
 }  // namespace barrow
