@@ -129,14 +129,12 @@ Finding findContinuity(const std::vector<double>& theta, const SweepSeries& s, d
   }
 
   const JumpTest test{f.resolution, o.jumpSafety, std::isfinite(s.accuracy) ? s.accuracy : 0.0};
-  std::vector<StepVerdict> verdict(theta.size(), StepVerdict::Smooth);  // by left index
-  for (const JudgedStep& j : judgeSteps(theta, s.value, o.stepRule, test)) verdict[j.interval.left] = j.verdict;
-  for (const StepInterval& st : classifySteps(theta, s.value, o.stepRule)) {
+  for (const JudgedStep& j : judgeSteps(theta, s.value, o.stepRule, test)) {
+    const StepInterval& st = j.interval;
     const double width = theta[st.right] - theta[st.left];
     const Jump here{0.5 * (theta[st.left] + theta[st.right]), st.step, width};
-    const StepVerdict v = st.jumpLike ? verdict[st.left] : StepVerdict::Smooth;
-    if (v == StepVerdict::Jump) f.jumps.push_back(here);
-    else if (v == StepVerdict::Unresolved) f.unresolved.push_back(here);
+    if (j.verdict == StepVerdict::Jump) f.jumps.push_back(here);
+    else if (j.verdict == StepVerdict::Unresolved) f.unresolved.push_back(here);
     else if (std::isfinite(st.step)) f.lipschitz = std::max(f.lipschitz, std::abs(st.step) / width);
   }
   f.continuous = f.jumps.empty() && f.unresolved.empty();

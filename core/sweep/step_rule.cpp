@@ -80,7 +80,10 @@ std::vector<JudgedStep> judgeSteps(const std::vector<double>& theta, const std::
   std::vector<JudgedStep> out;
   for (std::size_t k = 0; k < steps.size(); ++k) {
     const StepInterval& s = steps[k];
-    if (!s.jumpLike) continue;
+    if (!s.jumpLike) {
+      out.push_back({s, StepVerdict::Smooth});
+      continue;
+    }
     JudgedStep j{s, StepVerdict::Unresolved};
     // A relative slack so that a width computed as a difference of θ values still counts.
     if (!(test.resolution > 0) || width(s) > test.resolution * (1 + 1e-9)) {

@@ -56,8 +56,8 @@ struct JudgedStep {
   StepVerdict verdict = StepVerdict::Smooth;
 };
 
-/// The verdict on every interval classifySteps flags as jump-like. A finite step over an
-/// interval of width h is a Jump only when
+/// Every interval of classifySteps with its verdict (Smooth for those it does not flag as
+/// jump-like). A flagged finite step over an interval of width h is a Jump only when
 ///   h <= resolution                                  (refinement reached the resolution),
 ///   |ΔD| > max(floor, 2·accuracy)                      (above the noise floor), and
 ///   |ΔD| > safety · L · h,  L = the largest secant slope of up to `window` finite intervals

@@ -178,20 +178,25 @@ TEST(JumpJudgementTest, JudgeStepsNeedsResolutionAndAStepBeyondTheLocalSlope) {
   std::vector<double> theta, value;
   for (int k = 0; k <= 10; ++k) theta.push_back(k * 1e-3);
   for (double t : theta) value.push_back(t > 4.5e-3 ? 1.0 + t : t);  // slope 1, jump 1 at 4.5e-3
+  // Every interval gets a verdict; only the one holding the step (θ 4e-3 … 5e-3) is flagged.
+  auto verdicts = [&](const JumpTest& t) {
+    std::vector<StepVerdict> v;
+    for (const JudgedStep& j : judgeSteps(theta, value, StepRule{}, t)) v.push_back(j.verdict);
+    return v;
+  };
+  auto only = [](StepVerdict at4) {
+    std::vector<StepVerdict> v(10, StepVerdict::Smooth);
+    v[4] = at4;
+    return v;
+  };
   JumpTest test;
   test.resolution = 1e-3;
-  auto judged = judgeSteps(theta, value, StepRule{}, test);
-  ASSERT_EQ(judged.size(), 1u);
-  EXPECT_EQ(judged[0].verdict, StepVerdict::Jump);
+  EXPECT_EQ(verdicts(test), only(StepVerdict::Jump));
   test.resolution = 0.5e-3;  // the bracket is wider than the resolution
-  judged = judgeSteps(theta, value, StepRule{}, test);
-  ASSERT_EQ(judged.size(), 1u);
-  EXPECT_EQ(judged[0].verdict, StepVerdict::Unresolved);
+  EXPECT_EQ(verdicts(test), only(StepVerdict::Unresolved));
   test.resolution = 1e-3;
   test.accuracy = 0.6;  // the solver cannot vouch for a change of 1
-  judged = judgeSteps(theta, value, StepRule{}, test);
-  ASSERT_EQ(judged.size(), 1u);
-  EXPECT_EQ(judged[0].verdict, StepVerdict::Smooth);
+  EXPECT_EQ(verdicts(test), only(StepVerdict::Smooth));
 }
 
 }  // namespace
