@@ -83,7 +83,11 @@ TEST(DensityMeasuresTest, EveryResultNamesTheEstimatorAndItsSettings) {
       EXPECT_TRUE(h.details.contains(key)) << id << " hist " << key;
     const Result k = run(id, a, b, {"density.estimator=kde"});
     EXPECT_EQ(k.status, Status::Ok) << id << " " << k.message;
-    for (const char* key : {"bandwidth", "bandwidth_rule", "grid_size", "grid_step", "error_estimate", "integration"})
+    for (const char* key : {"bandwidth", "bandwidth_rule", "nodes_per_bandwidth", "error_estimate", "integration"})
+      EXPECT_TRUE(k.details.contains(key)) << id << " kde " << key;
+    // TV integrates by rows (its panels), the others on a node grid.
+    for (const char* key : std::string(id) == "tv" ? std::vector<const char*>{"tv_panels", "tv_rows"}
+                                                   : std::vector<const char*>{"grid_size", "grid_step"})
       EXPECT_TRUE(k.details.contains(key)) << id << " kde " << key;
     EXPECT_EQ(h.details["estimator"], "hist");
     EXPECT_EQ(k.details["estimator"], "kde");
