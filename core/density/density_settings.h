@@ -5,9 +5,9 @@
 #include <Eigen/Core>
 #include <optional>
 
+#include "base/params.h"
 #include "cloud/cloud.h"
 #include "density/kde_bandwidth.h"
-#include "measures/params.h"
 
 namespace barrow {
 

@@ -9,8 +9,8 @@
 #include <Eigen/Core>
 #include <vector>
 
+#include "base/run_control.h"
 #include "cloud/cloud.h"
-#include "measures/run_control.h"
 
 namespace barrow {
 

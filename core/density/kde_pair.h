@@ -6,9 +6,9 @@
 #include <Eigen/Core>
 #include <vector>
 
+#include "base/run_control.h"
 #include "cloud/cloud.h"
 #include "density/kde_grid.h"
-#include "measures/run_control.h"
 
 namespace barrow {
 

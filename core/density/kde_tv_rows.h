@@ -21,10 +21,10 @@
 // + an allowance for rounding.
 #pragma once
 
+#include "base/run_control.h"
 #include "cloud/cloud.h"
 #include "density/kde_integral.h"
 #include "density/kde_pair.h"
-#include "measures/run_control.h"
 
 namespace barrow {
 

@@ -17,8 +17,8 @@
 #include <optional>
 #include <string>
 
+#include "base/run_control.h"
 #include "cloud/cloud.h"
-#include "measures/run_control.h"
 
 namespace barrow {
 

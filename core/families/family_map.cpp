@@ -27,7 +27,7 @@ bool knownFamily(const std::string& f) {
 
 }  // namespace
 
-FamilyMap::FamilyMap(const Cloud& a, const Cloud& b, const SweepSettings& s)
+FamilyMap::FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s)
     : family_(s.family), a_(a), b_(b) {
   if (!knownFamily(family_)) {
     error_ = "unknown family '" + family_ + "' (expected shift, rotate, scale, interpolate or mix)";
@@ -128,13 +128,6 @@ Eigen::MatrixX2d FamilyMap::velocity(double theta) const {
   Eigen::Matrix2d j;
   j << 0.0, -1.0, 1.0, 0.0;
   return kRadiansPerDegree * rel * (j * rotation(theta)).transpose();
-}
-
-std::pair<double, double> defaultFamilyRange(const std::string& family) {
-  if (family == "rotate") return {-180.0, 180.0};
-  if (family == "scale") return {0.25, 2.0};
-  if (family == "interpolate" || family == "mix") return {0.0, 1.0};
-  return {-1.0, 1.0};
 }
 
 }  // namespace barrow

@@ -16,9 +16,9 @@
 #include <string>
 #include <vector>
 
+#include "base/plan_entry.h"
 #include "cloud/cloud.h"
-#include "measures/result.h"
-#include "sweep/sweep_settings.h"
+#include "families/family_spec.h"
 
 namespace barrow {
 
@@ -26,7 +26,7 @@ class FamilyMap {
  public:
   /// Prepares the family of `s` (only family, direction and center are read). For
   /// `interpolate` this solves the exact W2 problem between a and b once.
-  FamilyMap(const Cloud& a, const Cloud& b, const SweepSettings& s);
+  FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s);
 
   /// Why the family cannot be used (bad clouds, zero direction, unknown family, the W2 plan
   /// failed or w2 is not available); nullopt when it is ready.
@@ -55,9 +55,5 @@ class FamilyMap {
   Eigen::VectorXd mass_;        // interpolate: mass of each plan entry
   std::optional<std::string> error_;
 };
-
-/// A sensible θ range for a family, for callers that were given none:
-/// shift [−1, 1], rotate [−180, 180], scale [0.25, 2], interpolate and mix [0, 1].
-std::pair<double, double> defaultFamilyRange(const std::string& family);
 
 }  // namespace barrow

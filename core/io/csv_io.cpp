@@ -7,8 +7,8 @@
 #include <string_view>
 #include <vector>
 
+#include "base/params.h"
 #include "io/atomic_write.h"
-#include "measures/params.h"
 
 namespace barrow {
 

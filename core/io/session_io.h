@@ -14,10 +14,10 @@
 #include <string>
 #include <vector>
 
+#include "base/params.h"
 #include "cloud/cloud.h"
 #include "io/atomic_write.h"
 #include "io/load_error.h"
-#include "measures/params.h"
 #include "sweep/sweep_settings.h"
 
 namespace barrow {

@@ -19,7 +19,7 @@
 #include <Eigen/Core>
 #include <string>
 
-#include "kernel/parallel_blocks.h"
+#include "base/parallel_blocks.h"
 
 namespace barrow {
 

@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "kernel/simd_exp.h"
+#include "base/simd_exp.h"
 
 namespace barrow {
 

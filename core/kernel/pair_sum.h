@@ -8,7 +8,7 @@
 #include <Eigen/Core>
 #include <vector>
 
-#include "kernel/parallel_blocks.h"
+#include "base/parallel_blocks.h"
 
 namespace barrow {
 

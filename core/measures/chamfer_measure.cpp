@@ -1,7 +1,7 @@
 #include "measures/chamfer_measure.h"
 
-#include "kernel/measure_outcome.h"
 #include "kernel/support_points.h"
+#include "measures/measure_outcome.h"
 #include "spatial/nn_batch.h"
 
 namespace barrow {

@@ -1,7 +1,7 @@
 #include "measures/density_measures.h"
 
-#include "density/density_estimates.h"
 #include "density/density_settings.h"
+#include "measures/density_estimates.h"
 
 namespace barrow {
 

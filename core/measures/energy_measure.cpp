@@ -3,7 +3,7 @@
 #include <cmath>
 
 #include "kernel/discrepancy.h"
-#include "kernel/measure_outcome.h"
+#include "measures/measure_outcome.h"
 #include "measures/unit_scale.h"
 
 namespace barrow {

@@ -3,7 +3,7 @@
 #include <cmath>
 
 #include "kernel/gaussian_fit.h"
-#include "kernel/measure_outcome.h"
+#include "measures/measure_outcome.h"
 #include "measures/unit_scale.h"
 
 namespace barrow {

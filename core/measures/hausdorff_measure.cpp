@@ -2,8 +2,8 @@
 
 #include <algorithm>
 
-#include "kernel/measure_outcome.h"
 #include "kernel/support_points.h"
+#include "measures/measure_outcome.h"
 #include "spatial/nn_batch.h"
 
 namespace barrow {

@@ -7,18 +7,13 @@
 #include <string>
 #include <vector>
 
+#include "base/params.h"
+#include "base/run_control.h"
+#include "base/warm_state.h"
 #include "cloud/cloud.h"
-#include "measures/params.h"
 #include "measures/result.h"
-#include "measures/run_control.h"
 
 namespace barrow {
-
-/// Solver state a measure may keep between calls on clouds of the same sizes (the network
-/// simplex basis, Sinkhorn potentials). Each measure defines its own subclass.
-struct WarmState {
-  virtual ~WarmState() = default;
-};
 
 struct EvalContext {
   /// Every parameter of the measure, defaults filled in and validated (see evaluateMeasure).

@@ -4,7 +4,7 @@
 
 #include "kernel/discrepancy.h"
 #include "kernel/median_distance.h"
-#include "kernel/measure_outcome.h"
+#include "measures/measure_outcome.h"
 
 namespace barrow {
 

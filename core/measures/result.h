@@ -7,17 +7,10 @@
 #include <string>
 #include <vector>
 
-#include "measures/status.h"
+#include "base/plan_entry.h"
+#include "base/status.h"
 
 namespace barrow {
-
-/// One nonzero of a transport plan: mass moved from A's point i to B's point j
-/// (indices into the clouds as given; masses under the normalised weights, summing to 1).
-struct PlanEntry {
-  int i = 0;
-  int j = 0;
-  double mass = 0.0;
-};
 
 struct Result {
   Status status = Status::InvalidInput;

@@ -3,7 +3,7 @@
 #include <cmath>
 #include <mutex>
 
-#include "transport/kernel_pass_threads.h"
+#include "base/row_workers.h"
 #include "transport/ot_1d.h"
 #include "measures/unit_scale.h"
 

@@ -5,7 +5,7 @@
 #include <Eigen/Core>
 #include <vector>
 
-#include "kernel/parallel_blocks.h"
+#include "base/parallel_blocks.h"
 #include "spatial/kd_tree.h"
 
 namespace barrow {

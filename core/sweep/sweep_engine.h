@@ -17,10 +17,10 @@
 
 #include <vector>
 
+#include "base/params.h"
+#include "base/run_control.h"
 #include "cloud/cloud.h"
 #include "measures/measure.h"
-#include "measures/params.h"
-#include "measures/run_control.h"
 #include "sweep/step_rule.h"
 #include "sweep/sweep_result.h"
 #include "sweep/sweep_settings.h"

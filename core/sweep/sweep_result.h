@@ -6,8 +6,8 @@
 #include <string>
 #include <vector>
 
-#include "measures/params.h"
-#include "measures/status.h"
+#include "base/params.h"
+#include "base/status.h"
 #include "sweep/sweep_settings.h"
 
 namespace barrow {

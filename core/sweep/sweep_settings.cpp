@@ -5,13 +5,6 @@
 
 namespace barrow {
 
-const std::vector<std::string>& familyNames() {
-  static const std::vector<std::string> names = {"shift", "rotate", "scale", "interpolate", "mix"};
-  return names;
-}
-
-double identityTheta(const std::string& family) { return family == "scale" ? 1.0 : 0.0; }
-
 double SweepSettings::referenceTheta() const { return reference.value_or(identityTheta(family)); }
 
 std::optional<std::string> SweepSettings::validate() const {

@@ -7,12 +7,12 @@
 #include <string>
 #include <vector>
 
+#include "families/family_spec.h"
+
 namespace barrow {
 
-struct SweepSettings {
-  std::string family = "shift";             // shift|rotate|scale|interpolate|mix
-  std::array<double, 2> direction{1.0, 0.0};  // shift: direction (normalised at use)
-  std::optional<std::array<double, 2>> center;  // rotate/scale: pivot; none = A's centroid
+/// The family and its placement (family_spec.h), then the θ grid and the measures.
+struct SweepSettings : FamilySettings {
   double from = -1.0;
   double to = 1.0;
   int steps = 81;                           // number of θ values, >= 2
@@ -26,11 +26,5 @@ struct SweepSettings {
   /// Reason the settings are unusable, if any.
   std::optional<std::string> validate() const;
 };
-
-/// The θ at which a family leaves A as given: 1 for scale, 0 for the others.
-double identityTheta(const std::string& family);
-
-/// The families, in the order the GUI and --help list them.
-const std::vector<std::string>& familyNames();
 
 }  // namespace barrow

@@ -10,8 +10,8 @@
 #include <string>
 #include <vector>
 
+#include "base/plan_entry.h"
 #include "cloud/cloud.h"
-#include "measures/result.h"
 
 namespace barrow {
 

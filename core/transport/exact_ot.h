@@ -27,10 +27,10 @@
 #include <string>
 #include <vector>
 
+#include "base/plan_entry.h"
+#include "base/run_control.h"
+#include "base/warm_state.h"
 #include "cloud/cloud.h"
-#include "measures/measure.h"
-#include "measures/result.h"
-#include "measures/run_control.h"
 
 namespace barrow {
 

@@ -11,10 +11,10 @@
 #include <utility>
 #include <vector>
 
-#include "measures/run_control.h"
+#include "base/row_workers.h"
+#include "base/run_control.h"
 #include "transport/exact_problem.h"
 #include "transport/exact_site_tree.h"
-#include "transport/kernel_pass_threads.h"
 
 namespace barrow {
 

@@ -10,7 +10,7 @@
 #include <utility>
 #include <vector>
 
-#include "measures/measure.h"
+#include "base/warm_state.h"
 #include "transport/exact_initial_basis.h"
 #include "transport/exact_problem.h"
 

@@ -12,7 +12,7 @@
 #include <Eigen/Core>
 #include <vector>
 
-#include "transport/kernel_pass_threads.h"
+#include "base/row_workers.h"
 
 namespace barrow::kernel {
 

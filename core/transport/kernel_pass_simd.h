@@ -1,7 +1,7 @@
 // Vectorised exp for the kernel passes (4 doubles per AVX2 register), with a scalar
 // fallback when the build has no AVX2 (BARROW_ARCH="").
 //
-// Method: that of kernel/simd_exp.h (Cody & Waite reduction, degree-13 Taylor polynomial);
+// Method: that of base/simd_exp.h (Cody & Waite reduction, degree-13 Taylor polynomial);
 // accuracy checked against std::exp in tests/core/sinkhorn_kernel_test.cpp.
 // Range: results below e^-708 are flushed to 0 (no subnormals), and x above ~709.4 gives +inf;
 // the Sinkhorn passes keep their exponents near 0 and recompute a row exactly otherwise.
@@ -9,7 +9,7 @@
 
 #include <cmath>
 
-#include "kernel/simd_exp.h"
+#include "base/simd_exp.h"
 
 #if defined(__AVX2__) && defined(__FMA__)
 #include <immintrin.h>
@@ -30,7 +30,7 @@ inline constexpr double kExpUnderflow = simd::kExpCutoff;
 
 #ifdef BARROW_KERNEL_AVX2
 /// e^x for 4 doubles; see the file comment for the range. The algorithm is the one of the
-/// kernel sums (kernel/simd_exp.h), whose reduction holds for positive x as well.
+/// kernel sums (base/simd_exp.h), whose reduction holds for positive x as well.
 inline __m256d exp4(__m256d x) {
   // min_pd returns its second operand when either is NaN: a NaN stays NaN and then gives 0.
   return simd::expNonPositive4(_mm256_min_pd(_mm256_set1_pd(709.78), x));

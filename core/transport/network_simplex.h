@@ -24,7 +24,7 @@
 #include <string>
 #include <vector>
 
-#include "measures/run_control.h"
+#include "base/run_control.h"
 
 namespace barrow {
 

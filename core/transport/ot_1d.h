@@ -14,7 +14,7 @@
 #include <Eigen/Core>
 #include <vector>
 
-#include "measures/result.h"
+#include "base/plan_entry.h"
 
 namespace barrow {
 

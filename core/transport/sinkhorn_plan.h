@@ -8,8 +8,8 @@
 #include <Eigen/Core>
 #include <vector>
 
-#include "measures/result.h"
-#include "transport/kernel_pass_threads.h"
+#include "base/plan_entry.h"
+#include "base/row_workers.h"
 
 namespace barrow {
 

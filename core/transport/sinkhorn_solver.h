@@ -26,8 +26,8 @@
 #include <Eigen/Core>
 #include <string>
 
-#include "measures/run_control.h"
-#include "transport/kernel_pass_threads.h"
+#include "base/row_workers.h"
+#include "base/run_control.h"
 
 namespace barrow {
 

@@ -7,9 +7,9 @@
 #include <random>
 #include <sstream>
 
+#include "base/simd_exp.h"
 #include "kernel/median_distance.h"
 #include "kernel/pair_sum.h"
-#include "kernel/simd_exp.h"
 #include "support/test_support.h"
 
 namespace barrow {

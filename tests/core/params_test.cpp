@@ -1,7 +1,7 @@
 // Parameter specs and key=value sets (the --set / session / GUI editor contract).
 #include <gtest/gtest.h>
 
-#include "measures/params.h"
+#include "base/params.h"
 
 namespace barrow {
 namespace {

@@ -4,8 +4,8 @@
 
 #include <cmath>
 
+#include "io/sweep_csv.h"
 #include "support/test_support.h"
-#include "sweep/sweep_csv.h"
 
 namespace barrow {
 namespace {

@@ -1,4 +1,4 @@
-#include "transport/kernel_pass_threads.h"
+#include "base/row_workers.h"
 
 #include <algorithm>
 

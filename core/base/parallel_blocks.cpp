@@ -1,4 +1,4 @@
-#include "kernel/parallel_blocks.h"
+#include "base/parallel_blocks.h"
 
 #include <algorithm>
 #include <atomic>

@@ -1,4 +1,4 @@
-#include "measures/status.h"
+#include "base/status.h"
 
 namespace barrow {
 

@@ -1,6 +1,6 @@
-#include "measures/param_text.h"
+#include "base/param_text.h"
 
-#include "measures/number_text.h"
+#include "base/number_text.h"
 
 namespace barrow {
 

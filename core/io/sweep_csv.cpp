@@ -1,11 +1,11 @@
-#include "sweep/sweep_csv.h"
+#include "io/sweep_csv.h"
 
 #include <charconv>
 #include <cmath>
 #include <sstream>
 
+#include "base/number_text.h"
 #include "io/atomic_write.h"
-#include "measures/number_text.h"
 
 namespace barrow {
 

@@ -1,11 +1,11 @@
 // The Gaussian KDE estimator (declared in density_estimates.h).
 #include <sstream>
 
-#include "density/density_estimates.h"
 #include "density/kde_integral.h"
 #include "density/kde_pair.h"
 #include "density/kde_tv_rows.h"
 #include "density/pooled_stats.h"
+#include "measures/density_estimates.h"
 
 namespace barrow {
 

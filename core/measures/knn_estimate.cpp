@@ -1,8 +1,8 @@
 // The k-nearest-neighbour estimator (declared in density_estimates.h).
 #include <sstream>
 
-#include "density/density_estimates.h"
 #include "density/knn_kl.h"
+#include "measures/density_estimates.h"
 
 namespace barrow {
 

@@ -2,10 +2,10 @@
 #include <cmath>
 #include <sstream>
 
-#include "density/density_estimates.h"
 #include "density/discrete_divergence.h"
 #include "density/histogram_grid.h"
 #include "density/pooled_stats.h"
+#include "measures/density_estimates.h"
 
 namespace barrow {
 

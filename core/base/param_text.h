@@ -3,7 +3,7 @@
 
 #include <string>
 
-#include "measures/params.h"
+#include "base/params.h"
 
 namespace barrow {
 

@@ -1,6 +1,6 @@
-#include "measures/params.h"
+#include "base/params.h"
 
-#include "measures/number_text.h"
+#include "base/number_text.h"
 
 #include <algorithm>
 #include <charconv>
