@@ -9,7 +9,7 @@
 #include <sstream>
 
 #include "measure_style.h"
-#include "measures/param_text.h"
+#include "base/param_text.h"
 #include "measures/units.h"
 #include "param_editor.h"
 #include "result_text.h"

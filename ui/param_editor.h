@@ -8,7 +8,7 @@
 #include <optional>
 #include <string>
 
-#include "measures/params.h"
+#include "base/params.h"
 
 namespace barrow::ui {
 

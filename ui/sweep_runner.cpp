@@ -3,7 +3,7 @@
 #include <QPromise>
 #include <QtConcurrent/QtConcurrentRun>
 
-#include "measures/run_control.h"
+#include "base/run_control.h"
 
 #if __has_include("sweep/sweep_engine.h") && __has_include("sweep/continuity.h")
 #include "sweep/continuity.h"

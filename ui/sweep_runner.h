@@ -11,8 +11,8 @@
 #include <string>
 #include <vector>
 
+#include "base/params.h"
 #include "cloud/cloud.h"
-#include "measures/params.h"
 #include "sweep/findings.h"
 #include "sweep/sweep_result.h"
 

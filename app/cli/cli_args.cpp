@@ -4,7 +4,7 @@
 #include <cmath>
 #include <sstream>
 
-#include "measures/params.h"
+#include "base/params.h"
 
 namespace barrow::cli {
 

@@ -10,11 +10,11 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "io/csv_io.h"
+#include "io/sweep_csv.h"
 #include "measures/registry.h"
 #include "scenario/demo_scenario.h"
 #include "sweep/continuity.h"
 #include "sweep/findings_json.h"
-#include "sweep/sweep_csv.h"
 #include "sweep/sweep_engine.h"
 
 namespace barrow::cli {

@@ -6,9 +6,9 @@
 
 #include "cli/cli_common.h"
 #include "cli/commands.h"
+#include "io/sweep_csv.h"
 #include "sweep/continuity.h"
 #include "sweep/findings_json.h"
-#include "sweep/sweep_csv.h"
 
 namespace barrow::cli {
 

@@ -9,7 +9,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "families/family_map.h"
-#include "sweep/sweep_csv.h"
+#include "io/sweep_csv.h"
 #include "sweep/sweep_engine.h"
 
 namespace barrow::cli {

@@ -2,7 +2,7 @@
 
 #include <set>
 
-#include "measures/param_text.h"
+#include "base/param_text.h"
 #include "measures/registry.h"
 
 namespace barrow::cli {
