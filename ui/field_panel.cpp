@@ -141,10 +141,7 @@ QWidget* FieldPanel::buildOverlayRow() {
   entropic_ = new QCheckBox(tr("Entropic plan"), w);
   entropic_->setToolTip(tr("Also draw the entropic plan at the current ε (dashed), for comparison with the exact one"));
   potential_ = new QCheckBox(tr("W1 potential"), w);
-  potential_->setToolTip(potentialMapAvailable()
-                             ? tr("Heat map of the Kantorovich potential φ of W1 (1-Lipschitz; W1 = Σaφ(x) − Σbφ(y))")
-                             : tr("This build has no potential evaluation"));
-  potential_->setEnabled(potentialMapAvailable());
+  potential_->setToolTip(tr("Heat map of the Kantorovich potential φ of W1 (1-Lipschitz; W1 = Σaφ(x) − Σbφ(y))"));
   interp_ = new QCheckBox(tr("Interpolate"), w);
   interp_->setToolTip(tr("Displacement interpolation along the exact plan: mass π_ij at (1−t)x_i + t·y_j"));
   interpT_ = new QSlider(Qt::Horizontal, w);
@@ -206,7 +203,7 @@ std::string FieldPanel::planId() const {
   return planCost_->currentData().toString().toStdString();
 }
 bool FieldPanel::entropicPlanShown() const { return entropic_->isChecked(); }
-bool FieldPanel::potentialShown() const { return potential_->isChecked() && potentialMapAvailable(); }
+bool FieldPanel::potentialShown() const { return potential_->isChecked(); }
 
 void FieldPanel::setPlanShown(bool on) { plan_->setChecked(on); }
 void FieldPanel::setPlanCost(const QString& id) {

@@ -2,10 +2,7 @@
 
 #include <algorithm>
 
-#if __has_include("families/family_map.h")
 #include "families/family_map.h"
-#define BARROW_UI_HAVE_FAMILIES 1
-#endif
 #include "measures/evaluate.h"
 #include "potential_map.h"
 
@@ -21,23 +18,17 @@ double since(std::chrono::steady_clock::time_point t0) {
   return std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
 }
 
-#ifdef BARROW_UI_HAVE_FAMILIES
 bool sameFamily(const SweepSettings& x, const SweepSettings& y) {
   return x.family == y.family && x.direction == y.direction && x.center == y.center;
 }
-#endif
 
 }  // namespace
 
-#ifdef BARROW_UI_HAVE_FAMILIES
 class FamilyMapHolder {
  public:
   FamilyMapHolder(const Cloud& a, const Cloud& b, const SweepSettings& s) : map(a, b, s) {}
   FamilyMap map;
 };
-#else
-class FamilyMapHolder {};
-#endif
 
 LiveEvaluator::LiveEvaluator(QObject* parent) : QObject(parent) {
   thread_ = std::thread([this] { loop(); });
@@ -105,10 +96,6 @@ Result LiveEvaluator::evaluateOne(const Measure& m, const Cloud& a, const Cloud&
 std::pair<Cloud, std::optional<Cloud>> LiveEvaluator::placeA(const LiveRequest& req,
                                                               std::string* message) {
   if (!req.family) return {req.a, std::nullopt};
-#ifndef BARROW_UI_HAVE_FAMILIES
-  *message = "this build has no sweep families";
-  return {req.a, std::nullopt};
-#else
   const FamilyView& f = *req.family;
   const bool cached = familyKey_ && sameCloud(familyKey_->a, req.a) && sameCloud(familyKey_->b, req.b) &&
                       sameFamily(familyKey_->settings, f.settings);
@@ -129,7 +116,6 @@ std::pair<Cloud, std::optional<Cloud>> LiveEvaluator::placeA(const LiveRequest& 
   Cloud shown = f.theta ? familyMap_->map.at(*f.theta) : req.a;
   shown.name = req.a.name;
   return {std::move(shown), familyMap_->map.at(f.reference)};
-#endif
 }
 
 std::optional<Result> LiveEvaluator::referenceOf(const Measure& m, const std::optional<Cloud>& refA,

@@ -18,6 +18,7 @@
 #include <qcustomplot.h>
 #include <sstream>
 
+#include "io/plan_csv.h"
 #include "field_panel.h"
 #include "field_view.h"
 #include "figure_export.h"
@@ -51,7 +52,7 @@ Session blankSession() {
   spec.center = {2.0, 0.0};
   spec.seed = 2;
   s.b = generate(spec, "B");
-  s.sweep.family = "shift";
+  s.sweep.family = Family::Shift;
   s.sweep.from = -1;
   s.sweep.to = 3;
   s.sweep.steps = 81;
@@ -206,7 +207,12 @@ void MainWindow::buildMenus() {
     if (csv.empty()) return status(tr("Run a sweep first."));
     exportTextDialog(tr("Export sweep data"), "sweep.csv", csv);
   }, this);
-  add(file, tr("Export plan (CSV)…"), {}, tr("The exact plan: i, j, mass and both endpoints"), [this] {
+  add(file, tr("Export findings (JSON)…"), {}, tr("Jumps, flat stretches and slopes per measure, as barrow-cli findings --json"), [this] {
+    const std::string json = sweep_->findingsJson();
+    if (json.empty()) return status(tr("Run a sweep first."));
+    exportTextDialog(tr("Export findings"), "findings.json", json);
+  }, this);
+  add(file, tr("Export plan (CSV)…"), {}, tr("The exact plan: i, j, mass, both endpoints and the cost, as barrow-cli plan"), [this] {
     const std::string csv = planCsv();
     if (csv.empty()) return status(tr("No exact plan yet: switch on the Plan overlay."));
     exportTextDialog(tr("Export plan"), "plan.csv", csv);
@@ -611,8 +617,9 @@ void MainWindow::exportFigureDialog(int which) {
 
 void MainWindow::exportTextDialog(const QString& title, const QString& defaultName, const std::string& text) {
   const QString dir = QSettings().value("files/lastDir").toString();
+  const QString filter = defaultName.endsWith(".json") ? "JSON (*.json)" : "CSV (*.csv)";
   const QString p = QFileDialog::getSaveFileName(this, title, dir.isEmpty() ? defaultName : dir + "/" + defaultName,
-                                                 "CSV (*.csv)");
+                                                 filter);
   if (p.isEmpty()) return;
   const QString e = SessionFiles::writeText(p, text);
   if (!e.isEmpty()) reportError(tr("Cannot export"), e);
@@ -661,17 +668,8 @@ std::string MainWindow::planCsv() const {
   const std::string id = field_->planId();
   const Result* r = id.empty() ? nullptr : measures_->result(id);
   if (!r || r->plan.empty()) return {};
-  const Cloud& a = field_->view()->shownCloud(Which::A);
-  const Cloud& b = field_->view()->shownCloud(Which::B);
-  std::ostringstream o;
-  o.precision(17);
-  o << "i,j,mass,x_a,y_a,x_b,y_b\n";  // i, j: 0-based rows of A and B
-  for (const auto& e : r->plan) {
-    if (e.i < 0 || e.i >= a.size() || e.j < 0 || e.j >= b.size()) continue;
-    o << e.i << ',' << e.j << ',' << e.mass << ',' << a.points(e.i, 0) << ',' << a.points(e.i, 1) << ','
-      << b.points(e.j, 0) << ',' << b.points(e.j, 1) << '\n';
-  }
-  return o.str();
+  return formatPlanCsv(field_->view()->shownCloud(Which::A), field_->view()->shownCloud(Which::B), r->plan,
+                       id == "w1" ? 1.0 : 2.0);
 }
 
 }  // namespace barrow::ui

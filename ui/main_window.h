@@ -73,6 +73,8 @@ class MainWindow : public QMainWindow {
   FieldPanel* field() const { return field_; }
   MeasuresPanel* measures() const { return measures_; }
   SweepPanel* sweep() const { return sweep_; }
+  /// What "Export plan" writes: the plan CSV of barrow-cli plan (empty without a plan).
+  std::string planCsv() const;
   FindingsPanel* findings() const { return findings_; }
   SessionFiles* files() const { return files_; }
   const QString& lastError() const { return lastError_; }
@@ -121,7 +123,6 @@ class MainWindow : public QMainWindow {
   void exportCloudDialog(Which w);
   void exportFigureDialog(int which);  // 0 the Field, 1 the Sweep plot
   void exportTextDialog(const QString& title, const QString& defaultName, const std::string& text);
-  std::string planCsv() const;
   void exportReportDialog();
 
   Options options_;

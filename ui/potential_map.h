@@ -18,7 +18,4 @@ namespace barrow::ui {
 std::string computePotentialMap(const Cloud& b, const Result& w1, const GridSpec& grid,
                                 Eigen::MatrixXd* out);
 
-/// True when this build has the engine's potential evaluation.
-bool potentialMapAvailable();
-
 }  // namespace barrow::ui

@@ -13,11 +13,11 @@
 #include <cmath>
 #include <sstream>
 
-#if __has_include("families/family_map.h")
-#include "families/family_map.h"
-#define BARROW_UI_HAVE_FAMILIES 1
-#endif
+#include "families/family_spec.h"
+#include "io/findings_json.h"
+#include "io/sweep_csv.h"
 #include "measures/registry.h"
+#include "sweep/sweep_merge.h"
 #include "sweep_plots.h"
 
 namespace barrow::ui {
@@ -43,37 +43,13 @@ QWidget* row(QWidget* parent, std::initializer_list<QWidget*> widgets) {
   return w;
 }
 
-void csvCell(std::ostringstream& o, double v) {
-  if (std::isnan(v)) return;
-  if (std::isinf(v)) {
-    o << (v > 0 ? "inf" : "-inf");
-    return;
-  }
-  o << v;
-}
-
-// The family's natural θ range (the engine's when it has one).
-std::pair<double, double> naturalRange(const std::string& family) {
-#ifdef BARROW_UI_HAVE_FAMILIES
-  return defaultFamilyRange(family);
-#else
-  if (family == "rotate") return {-180, 180};
-  if (family == "scale") return {0.25, 2};
-  if (family == "interpolate" || family == "mix") return {0, 1};
-  return {-1, 1};
-#endif
-}
-
 }  // namespace
 
 QString SweepPanel::thetaLabel(const SweepSettings& s) {
-  if (s.family == "shift")
-    return tr("θ: distance A is moved along (%1, %2)").arg(s.direction[0], 0, 'g', 3).arg(s.direction[1], 0, 'g', 3);
-  if (s.family == "rotate") return tr("θ: rotation of A in degrees");
-  if (s.family == "scale") return tr("θ: scale factor of A");
-  if (s.family == "interpolate") return tr("θ = t: displacement interpolation from A (0) to B (1)");
-  if (s.family == "mix") return tr("θ: share of B in the mixture (1−θ)A + θB");
-  return "θ";
+  const FamilySpec& f = familySpec(s.family);
+  QString label = tr("θ: %1").arg(QString::fromUtf8(f.label));
+  if (f.usesDirection) label += QString(" (%1, %2)").arg(s.direction[0], 0, 'g', 3).arg(s.direction[1], 0, 'g', 3);
+  return label + QString(" [%1]").arg(QString::fromUtf8(f.thetaUnit));
 }
 
 SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
@@ -154,16 +130,14 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
   layout->addLayout(actions);
   layout->addWidget(plots_, 1);
 
-  if (!SweepRunner::available()) {
-    runButton_->setEnabled(false);
-    runButton_->setToolTip(tr("This build has no sweep engine"));
-  }
   connect(family_, &QComboBox::currentTextChanged, this, [this](const QString& f) {
     if (loading_) return;
     // A new family gets its natural range unless the current one still fits it.
     SweepSettings s = doc_->session().sweep;
-    s.family = f.toStdString();
-    const auto [lo, hi] = naturalRange(s.family);
+    const FamilySpec* spec = findFamily(f.toStdString());
+    if (!spec) return;
+    s.family = spec->family;
+    const double lo = spec->from, hi = spec->to;
     if (s.validate()) {
       s.from = lo;
       s.to = hi;
@@ -251,7 +225,7 @@ void SweepPanel::updateStale() {
 void SweepPanel::loadFromSession() {
   loading_ = true;
   const SweepSettings& s = doc_->session().sweep;
-  family_->setCurrentText(QString::fromStdString(s.family));
+  family_->setCurrentText(QString::fromUtf8(familySpec(s.family).name));
   dirX_->setValue(s.direction[0]);
   dirY_->setValue(s.direction[1]);
   autoCenter_->setChecked(!s.center.has_value());
@@ -271,9 +245,9 @@ void SweepPanel::loadFromSession() {
 }
 
 void SweepPanel::updateFamilyControls() {
-  const QString f = family_->currentText();
-  shiftBox_->setVisible(f == "shift");
-  centerBox_->setVisible(f == "rotate" || f == "scale");
+  const FamilySpec* f = findFamily(family_->currentText().toStdString());
+  shiftBox_->setVisible(f && f->usesDirection);
+  centerBox_->setVisible(f && f->usesCenter);
   centerX_->setEnabled(!autoCenter_->isChecked());
   centerY_->setEnabled(!autoCenter_->isChecked());
 }
@@ -281,7 +255,7 @@ void SweepPanel::updateFamilyControls() {
 void SweepPanel::commit() {
   if (loading_) return;
   SweepSettings s = doc_->session().sweep;
-  s.family = family_->currentText().toStdString();
+  if (const FamilySpec* f = findFamily(family_->currentText().toStdString())) s.family = f->family;
   s.direction = {dirX_->value(), dirY_->value()};
   if (autoCenter_->isChecked()) s.center.reset();
   else s.center = std::array<double, 2>{centerX_->value(), centerY_->value()};
@@ -308,10 +282,6 @@ std::vector<std::string> SweepPanel::measureIds() const {
 }
 
 void SweepPanel::run() {
-  if (!SweepRunner::available()) {
-    emit message(tr("This build has no sweep engine."));
-    return;
-  }
   SweepSettings s = doc_->session().sweep;
   s.measures = measureIds();
   if (auto e = s.validate()) {
@@ -379,60 +349,22 @@ std::vector<Finding> SweepPanel::findings() const {
   std::vector<Finding> all;
   for (const auto& p : parts_) all.insert(all.end(), p.findings.begin(), p.findings.end());
   // In the registry's order, whichever pass they came from.
-  const auto& order = MeasureRegistry::instance().all();
-  auto rank = [&](const std::string& id) {
-    for (std::size_t k = 0; k < order.size(); ++k)
-      if (order[k]->id() == id) return k;
-    return order.size();
-  };
-  std::stable_sort(all.begin(), all.end(), [&](const Finding& x, const Finding& y) { return rank(x.id) < rank(y.id); });
+  const auto& reg = MeasureRegistry::instance();
+  std::stable_sort(all.begin(), all.end(),
+                   [&](const Finding& x, const Finding& y) { return reg.rank(x.id) < reg.rank(y.id); });
   return all;
 }
 
 std::string SweepPanel::toCsv() const {
-  std::vector<double> grid;
-  std::vector<const SweepSeries*> series;
-  std::vector<const std::vector<double>*> thetaOf;
-  for (const auto& p : parts_) {
-    grid.insert(grid.end(), p.result.theta.begin(), p.result.theta.end());
-    for (const auto& s : p.result.series) {
-      series.push_back(&s);
-      thetaOf.push_back(&p.result.theta);
-    }
-  }
-  if (grid.empty()) return {};
-  std::sort(grid.begin(), grid.end());
-  grid.erase(std::unique(grid.begin(), grid.end()), grid.end());
-  std::ostringstream o;
-  o.precision(17);
-  o << "theta";
-  for (const auto* s : series) o << ',' << s->id;
-  for (const auto* s : series) o << ",d_" << s->id;
-  o << '\n';
-  // Row k of series s, or -1 when that pass has no value at θ.
-  auto rowOf = [&](std::size_t s, double th) -> long {
-    const auto& t = *thetaOf[s];
-    const auto it = std::lower_bound(t.begin(), t.end(), th);
-    return it != t.end() && *it == th ? long(it - t.begin()) : -1;
-  };
-  for (double th : grid) {
-    o << th;
-    for (std::size_t s = 0; s < series.size(); ++s) {
-      o << ',';
-      const long k = rowOf(s, th);
-      const SweepSeries& x = *series[s];
-      if (k >= 0 && std::size_t(k) < x.value.size() && std::size_t(k) < x.status.size() &&
-          (x.status[k] == Status::Ok || x.status[k] == Status::Infinite || x.status[k] == Status::NotConverged))
-        csvCell(o, x.value[k]);
-    }
-    for (std::size_t s = 0; s < series.size(); ++s) {
-      o << ',';
-      const long k = rowOf(s, th);
-      if (k >= 0 && std::size_t(k) < series[s]->slope.size()) csvCell(o, series[s]->slope[k]);
-    }
-    o << '\n';
-  }
-  return o.str();
+  std::vector<SweepResult> results;
+  for (const auto& p : parts_) results.push_back(p.result);
+  if (results.empty()) return {};
+  return formatSweepCsv(mergeSweeps(results));
+}
+
+std::string SweepPanel::findingsJson() const {
+  if (parts_.empty()) return {};
+  return formatFindingsJson(findings());
 }
 
 }  // namespace barrow::ui

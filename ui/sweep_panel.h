@@ -46,6 +46,8 @@ class SweepPanel : public QWidget {
   /// passes' θ grids are merged; a measure has no value at a θ that refinement added in the
   /// other pass, and its cell there is empty.
   std::string toCsv() const;
+  /// The findings as the JSON of `barrow-cli findings --json` (empty before a sweep).
+  std::string findingsJson() const;
   /// Axis label of θ for a family ("θ: distance moved along (1, 0)").
   static QString thetaLabel(const SweepSettings& s);
   QPushButton* runButton() const { return runButton_; }

@@ -5,11 +5,8 @@
 
 #include "base/run_control.h"
 
-#if __has_include("sweep/sweep_engine.h") && __has_include("sweep/continuity.h")
 #include "sweep/continuity.h"
 #include "sweep/sweep_engine.h"
-#define BARROW_UI_HAVE_SWEEP 1
-#endif
 
 namespace barrow::ui {
 
@@ -18,7 +15,6 @@ namespace {
 SweepOutcome runOne(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params,
                     const std::atomic<bool>* cancel, QPromise<SweepOutcome>& promise) {
   SweepOutcome out;
-#ifdef BARROW_UI_HAVE_SWEEP
   RunControl control;
   control.cancel = cancel;
   control.onProgress = [&promise](double f) {
@@ -34,22 +30,10 @@ SweepOutcome runOne(const Cloud& a, const Cloud& b, const SweepSettings& setting
   } catch (const std::exception& e) {
     out.error = e.what();
   }
-#else
-  (void)a; (void)b; (void)settings; (void)params; (void)cancel; (void)promise;
-  out.error = "this build has no sweep engine";
-#endif
   return out;
 }
 
 }  // namespace
-
-bool SweepRunner::available() {
-#ifdef BARROW_UI_HAVE_SWEEP
-  return true;
-#else
-  return false;
-#endif
-}
 
 SweepRunner::SweepRunner(QObject* parent) : QObject(parent) {
   pool_.setMaxThreadCount(2);  // a cancelled sweep may still be winding down as the next starts

@@ -1,6 +1,6 @@
 // Runs a sweep (the engine's runSweep) and its continuity findings on a worker thread via
 // QtConcurrent with a QPromise: progress, cancellation, and only the newest run's outcome is
-// reported. Builds without the sweep engine (available() is then false).
+// reported.
 #pragma once
 
 #include <QFutureWatcher>
@@ -30,8 +30,6 @@ class SweepRunner : public QObject {
   explicit SweepRunner(QObject* parent = nullptr);
   ~SweepRunner() override;
 
-  /// True when this build contains the sweep engine.
-  static bool available();
   /// Starts a sweep of A_θ against B, cancelling one still running.
   void start(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params);
   void cancel();

@@ -55,17 +55,6 @@ ParamSet parseSets(const CliArgs& args) {
   return set;
 }
 
-std::string formatNumber(double v) {
-  if (std::isnan(v)) return "nan";
-  if (std::isinf(v)) return v > 0 ? "inf" : "-inf";
-  char buf[64];
-  for (int prec = 6; prec <= 17; ++prec) {
-    std::snprintf(buf, sizeof buf, "%.*g", prec, v);
-    if (std::strtod(buf, nullptr) == v) break;
-  }
-  return buf;
-}
-
 void checkWritable(const std::string& path, const std::string& option) {
   if (path == "-") return;
   namespace fs = std::filesystem;

@@ -20,7 +20,7 @@ inline constexpr int kExitBadInput = 2;
 struct InputError {
   std::string message;
 };
-/// A failure of ours, or an engine that is not built yet: one line, exit 1.
+/// A failure of ours: one line, exit 1.
 struct InternalError {
   std::string message;
 };
@@ -29,7 +29,7 @@ struct InternalError {
 Cloud loadCloud(const std::string& path);
 
 /// The measures named in --measures (all registered ones when absent). Unknown ids are an
-/// InputError; every id is registered in this build.
+/// InputError naming the registered ones.
 std::vector<const Measure*> selectMeasures(const CliArgs& args);
 
 /// Every --set, checked against the known parameter keys and their ranges.
@@ -39,8 +39,5 @@ ParamSet parseSets(const CliArgs& args);
 /// is not itself a folder. Called before long work so a typo does not waste it. "-" (stdout)
 /// passes.
 void checkWritable(const std::string& path, const std::string& option);
-
-/// "0.42", "inf", "nan" — shortest text that reads back to the same double.
-std::string formatNumber(double v);
 
 }  // namespace barrow::cli

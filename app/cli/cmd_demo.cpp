@@ -14,7 +14,7 @@
 #include "measures/registry.h"
 #include "scenario/demo_scenario.h"
 #include "sweep/continuity.h"
-#include "sweep/findings_json.h"
+#include "io/findings_json.h"
 #include "sweep/sweep_engine.h"
 
 namespace barrow::cli {
@@ -37,20 +37,19 @@ int runDemo(const std::vector<std::string>& argv) {
   req.params = s.params;
   req.threads = args.integer("threads", 0);
   if (req.threads < 0) throw UsageError{"--threads: expected 0 (all cores) or a positive number"};
-  if (MeasureRegistry::instance().all().empty()) throw InternalError{"no measure engine is built yet"};
   const SweepResult r = runSweepWithProgress(s.a, s.b, req);
   if (auto e = writeSweepCsv(sweepPath, r)) throw InputError{*e};
 
   const auto findings = findContinuity(r);
   if (args.flag("json")) {
-    std::cout << findingsToJson(findings).dump() << "\n";
+    std::cout << formatFindingsJson(findings);
     return kExitOk;
   }
   std::printf("demo: '%s' (A, %lld points) and '%s' (B, %lld points) written to %s and %s\n", s.a.name.c_str(),
               static_cast<long long>(s.a.size()), s.b.name.c_str(), static_cast<long long>(s.b.size()),
               aPath.c_str(), bPath.c_str());
   std::printf("sweep: %s of A, θ from %g to %g, %zu θ values, %zu measures, %.2f s -> %s\n\n",
-              r.settings.family.c_str(), r.settings.from, r.settings.to, r.theta.size(), r.series.size(), r.seconds,
+              familyName(r.settings.family).c_str(), r.settings.from, r.settings.to, r.theta.size(), r.series.size(), r.seconds,
               sweepPath.c_str());
   for (const auto& f : findings) std::printf("%s\n", f.summary.c_str());
   printSweepNotes(r, stdout);

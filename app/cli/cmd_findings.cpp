@@ -8,7 +8,7 @@
 #include "cli/commands.h"
 #include "io/sweep_csv.h"
 #include "sweep/continuity.h"
-#include "sweep/findings_json.h"
+#include "io/findings_json.h"
 
 namespace barrow::cli {
 
@@ -34,7 +34,7 @@ int runFindings(const std::vector<std::string>& argv) {
   }
   const auto findings = findContinuity(r);
   if (args.flag("json")) {
-    std::cout << findingsToJson(findings).dump() << "\n";
+    std::cout << formatFindingsJson(findings);
   } else {
     for (const auto& f : findings) std::printf("%s\n", f.summary.c_str());
     if (!args.has("sweep")) {

@@ -4,6 +4,7 @@
 #include <iostream>
 #include <nlohmann/json.hpp>
 
+#include "base/number_text.h"
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "measures/details_text.h"
@@ -29,7 +30,7 @@ int runMeasure(const std::vector<std::string>& argv) {
     const std::string unit = measureUnit(*m, req.params);
     out["measures"].push_back(measureRowJson(*m, r, req.params));
     if (!args.flag("json")) {
-      const std::string shown = formatNumber(r.value) + " " + unit;  // the unit right beside the number
+      const std::string shown = shortestText(r.value) + " " + unit;  // the unit right beside the number
       std::printf("%-10s %-36s %-14s %8.3f ms\n", m->id().c_str(), shown.c_str(), statusName(r.status),
                   r.seconds * 1e3);
       if (!r.message.empty()) std::printf("%-10s note: %s\n", "", r.message.c_str());

@@ -1,5 +1,6 @@
 // barrow-cli plan --a A.csv --b B.csv [--cost w1|w2] --out plan.csv [--potentials P.csv]   (--out - : standard output)
-// Writes the exact optimal transport plan, one nonzero per line:
+// Writes the exact optimal transport plan in the plan CSV of core/io/plan_csv.h, one nonzero
+// per line, sorted by (i, j):
 //   i,j,mass,ax,ay,bx,by,cost
 // with i, j the 0-based data rows of A and B, mass under the normalised weights (summing to
 // 1) and cost = c(x_i, y_j) (|x-y| for w1, |x-y|^2 for w2). Prints a one-line summary.
@@ -13,12 +14,12 @@
 #include <cstdio>
 #include <string>
 
+#include "base/number_text.h"
 #include "cli/cli_common.h"
 #include "cli/commands.h"
-#include "io/atomic_write.h"
+#include "io/plan_csv.h"
 #include "measures/evaluate.h"
 #include "measures/registry.h"
-#include "transport/exact_cost.h"
 
 namespace barrow::cli {
 
@@ -41,26 +42,19 @@ int runPlan(const std::vector<std::string>& argv) {
   if (r.status == Status::InvalidInput) throw InputError{r.message};
   if (r.status != Status::Ok) throw InternalError{costName + " failed: " + r.message};
 
-  const GroundCost cost(costName == "w1" ? 1.0 : 2.0);
-  std::string csv = "i,j,mass,ax,ay,bx,by,cost\n";
-  for (const auto& e : r.plan) {
-    const double ax = a.points(e.i, 0), ay = a.points(e.i, 1), bx = b.points(e.j, 0), by = b.points(e.j, 1);
-    csv += std::to_string(e.i) + "," + std::to_string(e.j) + "," + formatNumber(e.mass) + "," + formatNumber(ax) +
-           "," + formatNumber(ay) + "," + formatNumber(bx) + "," + formatNumber(by) + "," +
-           formatNumber(cost(ax, ay, bx, by)) + "\n";
-  }
+  const std::string csv = formatPlanCsv(a, b, r.plan, costName == "w1" ? 1.0 : 2.0);
   if (out == "-") std::fwrite(csv.data(), 1, csv.size(), stdout);
   else if (auto e = atomicWriteFile(out, csv)) throw InputError{*e};
   if (potentials) {
     if (r.u.size() != a.size() || r.v.size() != b.size())
       throw InternalError{costName + " returned no dual potentials for every row"};
     std::string p = "side,index,potential\n";
-    for (Eigen::Index i = 0; i < r.u.size(); ++i) p += "A," + std::to_string(i) + "," + formatNumber(r.u(i)) + "\n";
-    for (Eigen::Index j = 0; j < r.v.size(); ++j) p += "B," + std::to_string(j) + "," + formatNumber(r.v(j)) + "\n";
+    for (Eigen::Index i = 0; i < r.u.size(); ++i) p += "A," + std::to_string(i) + "," + shortestText(r.u(i)) + "\n";
+    for (Eigen::Index j = 0; j < r.v.size(); ++j) p += "B," + std::to_string(j) + "," + shortestText(r.v(j)) + "\n";
     if (auto e = atomicWriteFile(*potentials, p)) throw InputError{*e};
   }
   std::fprintf(out == "-" ? stderr : stdout, "%s = %s  nonzeros = %zu  marginal error = %.1e  (%.1f ms)  -> %s\n", costName.c_str(),
-              formatNumber(r.value).c_str(), r.plan.size(), r.details.value("marginal_error", 0.0), r.seconds * 1e3,
+              shortestText(r.value).c_str(), r.plan.size(), r.details.value("marginal_error", 0.0), r.seconds * 1e3,
               out.c_str());
   if (potentials)
     std::fprintf(out == "-" ? stderr : stdout, "dual potentials of the cost c(x, y) = %s (u on A, v on B; u_i + v_j <= c_ij, equality on the "

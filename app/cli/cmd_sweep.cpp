@@ -6,6 +6,7 @@
 #include <cstdio>
 #include <mutex>
 
+#include "base/number_text.h"
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "families/family_map.h"
@@ -28,10 +29,12 @@ std::array<double, 2> pairOption(const CliArgs& args, const std::string& name) {
 SweepRequest requestFromArgs(const CliArgs& args) {
   SweepRequest req;
   SweepSettings& s = req.settings;
-  s.family = args.required("family");
-  const auto [lo, hi] = defaultFamilyRange(s.family);
-  s.from = args.number("from", lo);
-  s.to = args.number("to", hi);
+  const std::string family = args.required("family");
+  const FamilySpec* spec = findFamily(family);
+  if (!spec) throw InputError{"unknown family '" + family + "' (expected " + familyChoices() + ")"};
+  s.family = spec->family;
+  s.from = args.number("from", spec->from);
+  s.to = args.number("to", spec->to);
   s.steps = args.integer("steps", s.steps);
   if (args.has("reference")) s.reference = args.number("reference", s.from);
   if (args.has("direction")) s.direction = pairOption(args, "direction");
@@ -92,7 +95,7 @@ SweepResult runSweepWithProgress(const Cloud& a, const Cloud& b, const SweepRequ
 
 void printSweepFrame(const SweepResult& r, std::FILE* to) {
   const SweepSettings& s = r.settings;
-  std::fprintf(to, "  settings frozen at the reference θ0 = %s (%s)\n", formatNumber(r.referenceTheta).c_str(),
+  std::fprintf(to, "  settings frozen at the reference θ0 = %s (%s)\n", shortestText(r.referenceTheta).c_str(),
                s.reference ? "set with --reference" : "the family's identity: A as given");
   if (r.refineTolerance > 0)
     std::fprintf(to, "  jumps confirmed to Δθ <= %.3g; refinement budget %d θ values, %d used%s\n",
@@ -103,7 +106,7 @@ void printSweepFrame(const SweepResult& r, std::FILE* to) {
 void printSweepNotes(const SweepResult& r, std::FILE* to) {
   for (const auto& s : r.series) {
     std::size_t failed = 0;
-    for (Status st : s.status) failed += !(st == Status::Ok || st == Status::Infinite || st == Status::NotConverged);
+    for (Status st : s.status) failed += !usable(st);
     if (failed > 0)
       std::fprintf(to, "  note: %s failed at %zu of %zu θ values: %s\n", s.id.c_str(), failed, s.status.size(),
                    s.message.c_str());

@@ -1,5 +1,7 @@
 #include "base/parallel_blocks.h"
 
+#include "base/busy_probe.h"
+
 #include <algorithm>
 #include <atomic>
 #include <exception>
@@ -9,15 +11,11 @@
 
 namespace barrow {
 
-int defaultThreadCount() {
-  const unsigned hc = std::thread::hardware_concurrency();
-  return hc == 0 ? 1 : int(hc);
-}
-
 bool runBlocks(int blocks, const std::function<void(int)>& work, const WorkSlice& slice, int threads) {
   if (blocks <= 0) return true;
   const RunControl* ctl = slice.control;
-  if (threads <= 0) threads = defaultThreadCount();
+  if (threads <= 0) threads = threadBudget(ctl);
+  else if (ctl && ctl->threads > 0) threads = std::min(threads, ctl->threads);
   threads = std::max(1, std::min(threads, blocks));
 
   std::atomic<int> next{0};
@@ -28,6 +26,7 @@ bool runBlocks(int blocks, const std::function<void(int)>& work, const WorkSlice
 
   // worker(true) runs on the calling thread and is the only one that reports progress.
   auto worker = [&](bool reporter) {
+    const BusyScope busy;
     try {
       for (;;) {
         if (stop.load(std::memory_order_relaxed)) return;

@@ -24,12 +24,10 @@ struct WorkSlice {
 /// Cancellation is checked between blocks from every thread; progress is reported only from
 /// the calling thread, so RunControl::onProgress never runs concurrently with itself.
 /// Returns false when stopped early (some blocks were then not run).
-/// `threads` = 0 chooses automatically; 1 runs everything on the calling thread.
+/// `threads` = 0 uses the control's thread budget; a larger request is cut to that budget;
+/// 1 runs everything on the calling thread.
 /// An exception thrown by `work` is rethrown here after all threads have joined.
 bool runBlocks(int blocks, const std::function<void(int block)>& work, const WorkSlice& slice,
                int threads = 0);
-
-/// Threads runBlocks uses when `threads` = 0 (at least 1).
-int defaultThreadCount();
 
 }  // namespace barrow

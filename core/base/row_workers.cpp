@@ -2,6 +2,8 @@
 
 #include <algorithm>
 
+#include "base/busy_probe.h"
+
 namespace barrow::kernel {
 
 RowWorkers::RowWorkers(int threads) {
@@ -38,6 +40,7 @@ void RowWorkers::drain(std::uint32_t generation, const std::function<void(int, i
 
 void RowWorkers::run(int rows, int grain, const std::function<void(int, int)>& fn) {
   if (rows <= 0) return;
+  const BusyScope busy;
   grain = std::max(1, grain);
   if (helpers_.empty() || rows <= grain) {
     for (int b = 0; b < rows; b += grain) fn(b, std::min(rows, b + grain));
@@ -77,6 +80,7 @@ void RowWorkers::helperLoop() {
     }
     // The job stays alive while a claim of its generation can succeed: its caller waits for
     // every claimed row before returning.
+    const BusyScope busy;
     drain(generation, *fn, rows, grain);
   }
 }

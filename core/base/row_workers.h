@@ -18,7 +18,8 @@ namespace barrow::kernel {
 /// wakes late finds the work done and the caller never waits for it. Not reentrant.
 class RowWorkers {
  public:
-  /// threads <= 0: one per hardware thread.
+  /// threads <= 0: one per hardware thread. Callers under a RunControl pass
+  /// threadBudget(control) (run_control.h), so nested teams stay within the budget.
   explicit RowWorkers(int threads = 0);
   ~RowWorkers();
   RowWorkers(const RowWorkers&) = delete;

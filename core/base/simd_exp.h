@@ -1,4 +1,5 @@
-// exp(x) for x <= 0, four doubles at a time (AVX2 + FMA), for the Gaussian kernel sums.
+// exp(x) for x <= 0, four doubles at a time (AVX2 + FMA, chosen at run time: cpu_features.h),
+// for the Gaussian kernel sums.
 // Method: Cody & Waite (1980) argument reduction x = k ln2 + r, |r| <= ln2/2, with ln2 split
 // in two parts (k ln2_hi exact for |k| < 2^21), then the degree-13 Taylor polynomial of e^r
 // (truncation error < 5e-18 relative) and scaling by 2^k through the exponent bits.
@@ -10,9 +11,10 @@
 
 #include <cmath>
 
-#if defined(__AVX2__) && defined(__FMA__)
+#include "base/cpu_features.h"
+
+#ifdef BARROW_X86_SIMD
 #include <immintrin.h>
-#define BARROW_HAVE_AVX2 1
 #endif
 
 namespace barrow::simd {
@@ -27,7 +29,7 @@ inline constexpr double kExpCoef[12] = {
     1.0 / 362880.0,     1.0 / 40320.0,     1.0 / 5040.0,     1.0 / 720.0,
     1.0 / 120.0,        1.0 / 24.0,        1.0 / 6.0,        1.0 / 2.0};
 
-/// Scalar form of the same algorithm (the build without AVX2 uses it; tests compare both).
+/// Scalar form of the same algorithm (CPUs without AVX2 use it; tests compare both).
 inline double expNonPositive(double x) {
   if (!(x >= kExpCutoff)) return 0.0;
   const double magic = 6755399441055744.0;  // 1.5 * 2^52: adding it rounds to an integer
@@ -41,9 +43,9 @@ inline double expNonPositive(double x) {
   return std::ldexp(p, int(k));
 }
 
-#ifdef BARROW_HAVE_AVX2
-/// Four lanes of expNonPositive (bit-identical to it for every lane).
-inline __m256d expNonPositive4(__m256d x) {
+#ifdef BARROW_X86_SIMD
+/// Four lanes of expNonPositive (bit-identical to it for every lane). AVX2 CPUs only.
+BARROW_AVX2_FN inline __m256d expNonPositive4(__m256d x) {
   const __m256d magic = _mm256_set1_pd(6755399441055744.0);  // 1.5 * 2^52: rounds to integer
   const __m256d kd = _mm256_fmadd_pd(x, _mm256_set1_pd(kLog2e), magic);
   const __m256d k = _mm256_sub_pd(kd, magic);

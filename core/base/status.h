@@ -16,4 +16,8 @@ enum class Status {
 /// The contract's spelling: "ok", "infinite", "not-converged", "invalid-input", "cancelled".
 const char* statusName(Status s);
 
+/// True when the value means something (ok, infinite, or the last iterate of a solver that
+/// ran out of iterations): the test every table, plot and file writer applies.
+inline bool usable(Status s) { return s == Status::Ok || s == Status::Infinite || s == Status::NotConverged; }
+
 }  // namespace barrow

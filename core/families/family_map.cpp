@@ -19,20 +19,10 @@ Eigen::Matrix2d rotation(double degrees) {
   return r;
 }
 
-bool knownFamily(const std::string& f) {
-  for (const auto& name : familyNames())
-    if (name == f) return true;
-  return false;
-}
-
 }  // namespace
 
 FamilyMap::FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s)
     : family_(s.family), a_(a), b_(b) {
-  if (!knownFamily(family_)) {
-    error_ = "unknown family '" + family_ + "' (expected shift, rotate, scale, interpolate or mix)";
-    return;
-  }
   if (auto e = a.validate()) {
     error_ = "A: " + *e;
     return;
@@ -42,7 +32,7 @@ FamilyMap::FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s)
     return;
   }
   const Eigen::Vector2d d(s.direction[0], s.direction[1]);
-  if (family_ == "shift") {
+  if (family_ == Family::Shift) {
     if (!std::isfinite(d.norm()) || d.norm() == 0.0) {
       error_ = "the shift direction must be a finite, non-zero vector";
       return;
@@ -54,7 +44,7 @@ FamilyMap::FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s)
     error_ = "the pivot must be a finite point";
     return;
   }
-  if (family_ != "interpolate") return;
+  if (family_ != Family::Interpolate) return;
 
   const Measure* w2 = MeasureRegistry::instance().find("w2");
   if (!w2) {
@@ -90,20 +80,20 @@ FamilyMap::FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s)
 Cloud FamilyMap::at(double theta) const {
   if (error_) return a_;
   const std::string name = a_.name.empty() ? std::string("A") : a_.name;
-  if (family_ == "shift") {
+  if (family_ == Family::Shift) {
     Eigen::MatrixX2d p = a_.points;
     p.rowwise() += (theta * direction_).transpose();
     return Cloud(name, std::move(p), a_.weights);
   }
-  if (family_ == "rotate" || family_ == "scale") {
+  if (family_ == Family::Rotate || family_ == Family::Scale) {
     Eigen::MatrixX2d p = a_.points;
     p.rowwise() -= center_.transpose();
-    if (family_ == "rotate") p = p * rotation(theta).transpose();
+    if (family_ == Family::Rotate) p = p * rotation(theta).transpose();
     else p *= theta;
     p.rowwise() += center_.transpose();
     return Cloud(name, std::move(p), a_.weights);
   }
-  if (family_ == "interpolate")
+  if (family_ == Family::Interpolate)
     return Cloud(name, (1.0 - theta) * from_ + theta * to_, mass_);
   // mix: A's and B's normalised weights, so each side carries its share of the unit mass.
   Eigen::MatrixX2d p(a_.size() + b_.size(), 2);
@@ -114,16 +104,16 @@ Cloud FamilyMap::at(double theta) const {
 }
 
 Eigen::MatrixX2d FamilyMap::velocity(double theta) const {
-  if (error_ || family_ == "mix") return {};
-  if (family_ == "shift") {
+  if (error_ || !familySpec(family_).pointsMove) return {};
+  if (family_ == Family::Shift) {
     Eigen::MatrixX2d v(a_.size(), 2);
     v.rowwise() = direction_.transpose();
     return v;
   }
-  if (family_ == "interpolate") return to_ - from_;
+  if (family_ == Family::Interpolate) return to_ - from_;
   Eigen::MatrixX2d rel = a_.points;
   rel.rowwise() -= center_.transpose();
-  if (family_ == "scale") return rel;
+  if (family_ == Family::Scale) return rel;
   // d/dθ R(θ)r = (π/180)·J·R(θ)r with J the quarter turn.
   Eigen::Matrix2d j;
   j << 0.0, -1.0, 1.0, 0.0;

@@ -28,7 +28,7 @@ class FamilyMap {
   /// `interpolate` this solves the exact W2 problem between a and b once.
   FamilyMap(const Cloud& a, const Cloud& b, const FamilySettings& s);
 
-  /// Why the family cannot be used (bad clouds, zero direction, unknown family, the W2 plan
+  /// Why the family cannot be used (bad clouds, zero direction, the W2 plan
   /// failed or w2 is not available); nullopt when it is ready.
   std::optional<std::string> error() const { return error_; }
 
@@ -38,14 +38,14 @@ class FamilyMap {
   /// θ). Empty for `mix`, whose points do not move, and when error() is set.
   Eigen::MatrixX2d velocity(double theta) const;
 
-  const std::string& family() const { return family_; }
+  Family family() const { return family_; }
   /// The pivot of rotate/scale (A's weighted centroid unless the settings name one).
   Eigen::Vector2d center() const { return center_; }
   /// The W2 plan behind `interpolate` (empty for the other families).
   const std::vector<PlanEntry>& plan() const { return plan_; }
 
  private:
-  std::string family_;
+  Family family_ = Family::Shift;
   Cloud a_;
   Cloud b_;
   Eigen::Vector2d direction_{1.0, 0.0};  // unit

@@ -2,18 +2,51 @@
 
 namespace barrow {
 
+const std::vector<FamilySpec>& familySpecs() {
+  // clang-format off
+  static const std::vector<FamilySpec> table = {
+    // family               name           label                                         from    to     unit          dir    pivot  [0,1]  moves
+    {Family::Shift,       "shift",       "distance A is moved along the direction",      -1.0,   1.0,  "cloud units", true,  false, false, true},
+    {Family::Rotate,      "rotate",      "rotation of A about the pivot",               -180.0, 180.0, "degrees",     false, true,  false, true},
+    {Family::Scale,       "scale",       "scale factor of A about the pivot",             0.25,  2.0,  "factor",      false, true,  false, true},
+    {Family::Interpolate, "interpolate", "displacement interpolation from A (0) to B (1)", 0.0,  1.0,  "t",           false, false, true,  true},
+    {Family::Mix,         "mix",         "share of B in the mixture (1−θ)A + θB",         0.0,   1.0,  "mass share",  false, false, true,  false},
+  };
+  // clang-format on
+  return table;
+}
+
+const FamilySpec& familySpec(Family f) {
+  for (const auto& s : familySpecs())
+    if (s.family == f) return s;
+  return familySpecs().front();  // unreachable: every enum value has a row (family_spec_test)
+}
+
+const FamilySpec* findFamily(const std::string& name) {
+  for (const auto& s : familySpecs())
+    if (name == s.name) return &s;
+  return nullptr;
+}
+
+std::string familyChoices() {
+  std::string out;
+  const auto& t = familySpecs();
+  for (std::size_t k = 0; k < t.size(); ++k)
+    out += (k == 0 ? "" : k + 1 == t.size() ? " or " : ", ") + std::string(t[k].name);
+  return out;
+}
+
 const std::vector<std::string>& familyNames() {
-  static const std::vector<std::string> names = {"shift", "rotate", "scale", "interpolate", "mix"};
+  static const std::vector<std::string> names = [] {
+    std::vector<std::string> out;
+    for (const auto& s : familySpecs()) out.push_back(s.name);
+    return out;
+  }();
   return names;
 }
 
-double identityTheta(const std::string& family) { return family == "scale" ? 1.0 : 0.0; }
+std::string familyName(Family f) { return familySpec(f).name; }
 
-std::pair<double, double> defaultFamilyRange(const std::string& family) {
-  if (family == "rotate") return {-180.0, 180.0};
-  if (family == "scale") return {0.25, 2.0};
-  if (family == "interpolate" || family == "mix") return {0.0, 1.0};
-  return {-1.0, 1.0};
-}
+double identityTheta(Family f) { return f == Family::Scale ? 1.0 : 0.0; }
 
 }  // namespace barrow

@@ -97,7 +97,7 @@ int lineOfByte(const std::string& text, std::size_t byte) {
 std::string formatSession(const Session& s) {
   json params = json::object();
   for (const auto& [k, v] : s.params.values()) params[k] = v;
-  json sweep = {{"family", s.sweep.family},
+  json sweep = {{"family", familyName(s.sweep.family)},
                 {"direction", {s.sweep.direction[0], s.sweep.direction[1]}},
                 {"center", s.sweep.center ? json{(*s.sweep.center)[0], (*s.sweep.center)[1]} : json()},
                 {"from", s.sweep.from},
@@ -177,7 +177,11 @@ Loaded<Session> parseSession(const std::string& text, const std::string& file) {
       SweepSettings& t = s.sweep;
       if (w.contains("family")) {
         if (!w["family"].is_string()) throw FieldError{"sweep.family", "expected a string"};
-        t.family = w["family"].get<std::string>();
+        const FamilySpec* f = findFamily(w["family"].get<std::string>());
+        if (!f)
+          throw FieldError{"sweep.family", "unknown family '" + w["family"].get<std::string>() + "' (expected " +
+                                               familyChoices() + ")"};
+        t.family = f->family;
       }
       if (w.contains("direction")) {
         const json& d = w["direction"];

@@ -66,7 +66,11 @@ void readSetting(SweepResult& r, std::map<std::string, std::string>& perMeasure,
     if (parts.size() != 2) throw ParseError{line, key, "expected two numbers x,y, got '" + text + "'"};
     return std::array<double, 2>{settingNumber(key, parts[0], line), settingNumber(key, parts[1], line)};
   };
-  if (key == "family") s.family = v;
+  if (key == "family") {
+    const FamilySpec* f = findFamily(v);
+    if (!f) throw ParseError{line, key, "unknown family '" + v + "' (expected " + familyChoices() + ")"};
+    s.family = f->family;
+  }
   else if (key == "direction") s.direction = pairOf(v);
   else if (key == "center") s.center = v == "auto" ? std::nullopt : std::optional(pairOf(v));
   else if (key == "from") s.from = settingNumber(key, v, line);
@@ -112,7 +116,7 @@ std::string formatSweepCsv(const SweepResult& r) {
   for (const auto& ser : r.series) ids.push_back(ser.id);
   o << "# barrow sweep, version 1: D(A_θ, B) per measure, then dD/dθ (d_<id>)\n";
   o << "# unit.<id> is the unit of column <id>; d_<id> is in that unit per unit of θ\n";
-  o << "# family=" << s.family << "\n";
+  o << "# family=" << familyName(s.family) << "\n";
   // The direction as used: normalised to unit length (only the shift family reads it).
   const double norm = std::hypot(s.direction[0], s.direction[1]);
   const bool unit = norm > 0 && std::isfinite(norm);

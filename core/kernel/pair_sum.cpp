@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "base/cpu_features.h"
 #include "base/simd_exp.h"
 
 namespace barrow {
@@ -33,63 +34,80 @@ struct RowAcc {
 // Skip the thread start-up for small problems.
 int threadsFor(double pairs, int threads) {
   if (threads > 0) return threads;
-  return pairs < double(1 << 18) ? 1 : defaultThreadCount();
+  return pairs < double(1 << 18) ? 1 : 0;  // 0: the control's budget (runBlocks)
 }
 
-// Adds sum_j w_j k(p, q_j) (and the gradient sums) over columns [j0, j1) to acc; columns
-// j < from are left out. j0 and j1 are multiples of 4 (the padding guarantees j1).
+#ifdef BARROW_X86_SIMD
+// The AVX2+FMA form (used only when the CPU has them: cpuHasAvx2Fma).
+struct Acc4 {
+  __m256d s, gx, gy;
+};
+
+// Four columns j..j+3 with weights w (lanes masked to 0 are left out).
 template <PairKernel K, bool Grad>
-void accumulateRow(double px, double py, const PackedPoints& q, Index j0, Index j1, Index from,
-                   double gamma, RowAcc& acc) {
+BARROW_AVX2_FN inline void step4(Acc4& a, __m256d vx, __m256d vy, __m256d negGamma, const double* qx,
+                                 const double* qy, Index j, __m256d w) {
+  const __m256d zero = _mm256_setzero_pd();
+  const __m256d dx = _mm256_sub_pd(vx, _mm256_loadu_pd(qx + j));
+  const __m256d dy = _mm256_sub_pd(vy, _mm256_loadu_pd(qy + j));
+  const __m256d d2 = _mm256_fmadd_pd(dx, dx, _mm256_mul_pd(dy, dy));
+  if constexpr (K == PairKernel::Gaussian) {
+    const __m256d wk = _mm256_mul_pd(w, simd::expNonPositive4(_mm256_mul_pd(negGamma, d2)));
+    a.s = _mm256_add_pd(a.s, wk);
+    if constexpr (Grad) {
+      a.gx = _mm256_fmadd_pd(wk, dx, a.gx);
+      a.gy = _mm256_fmadd_pd(wk, dy, a.gy);
+    }
+  } else {
+    const __m256d d = _mm256_sqrt_pd(d2);
+    a.s = _mm256_fmadd_pd(w, d, a.s);
+    if constexpr (Grad) {
+      const __m256d pos = _mm256_cmp_pd(d, zero, _CMP_GT_OQ);
+      const __m256d wInv = _mm256_and_pd(_mm256_div_pd(w, _mm256_max_pd(d, _mm256_set1_pd(1e-300))), pos);
+      a.gx = _mm256_fmadd_pd(wInv, dx, a.gx);
+      a.gy = _mm256_fmadd_pd(wInv, dy, a.gy);
+    }
+  }
+}
+
+BARROW_AVX2_FN inline double hsum4(__m256d v) {
+  const __m128d lo = _mm256_castpd256_pd128(v), hi = _mm256_extractf128_pd(v, 1);
+  const __m128d pair = _mm_add_pd(lo, hi);
+  return _mm_cvtsd_f64(_mm_add_sd(pair, _mm_unpackhi_pd(pair, pair)));
+}
+
+template <PairKernel K, bool Grad>
+BARROW_AVX2_FN void accumulateRowAvx2(double px, double py, const PackedPoints& q, Index j0, Index j1, Index from,
+                                      double gamma, RowAcc& acc) {
   const double* qx = q.x();
   const double* qy = q.y();
   const double* qw = q.w();
-#ifdef BARROW_HAVE_AVX2
   const __m256d vx = _mm256_set1_pd(px), vy = _mm256_set1_pd(py);
   const __m256d negGamma = _mm256_set1_pd(-gamma);
-  const __m256d zero = _mm256_setzero_pd();
-  __m256d s = zero, gx = zero, gy = zero;
-  auto step = [&](Index j, __m256d w) {
-    const __m256d dx = _mm256_sub_pd(vx, _mm256_loadu_pd(qx + j));
-    const __m256d dy = _mm256_sub_pd(vy, _mm256_loadu_pd(qy + j));
-    const __m256d d2 = _mm256_fmadd_pd(dx, dx, _mm256_mul_pd(dy, dy));
-    if constexpr (K == PairKernel::Gaussian) {
-      const __m256d wk = _mm256_mul_pd(w, simd::expNonPositive4(_mm256_mul_pd(negGamma, d2)));
-      s = _mm256_add_pd(s, wk);
-      if constexpr (Grad) {
-        gx = _mm256_fmadd_pd(wk, dx, gx);
-        gy = _mm256_fmadd_pd(wk, dy, gy);
-      }
-    } else {
-      const __m256d d = _mm256_sqrt_pd(d2);
-      s = _mm256_fmadd_pd(w, d, s);
-      if constexpr (Grad) {
-        const __m256d pos = _mm256_cmp_pd(d, zero, _CMP_GT_OQ);
-        const __m256d wInv = _mm256_and_pd(_mm256_div_pd(w, _mm256_max_pd(d, _mm256_set1_pd(1e-300))), pos);
-        gx = _mm256_fmadd_pd(wInv, dx, gx);
-        gy = _mm256_fmadd_pd(wInv, dy, gy);
-      }
-    }
-  };
+  Acc4 a{_mm256_setzero_pd(), _mm256_setzero_pd(), _mm256_setzero_pd()};
   Index j = j0;
   if (j < from) {  // first vector straddles the diagonal: mask the lanes j < from
     const __m256d lane = _mm256_set_pd(double(j + 3), double(j + 2), double(j + 1), double(j));
     const __m256d keep = _mm256_cmp_pd(lane, _mm256_set1_pd(double(from)), _CMP_GE_OQ);
-    step(j, _mm256_and_pd(_mm256_loadu_pd(qw + j), keep));
+    step4<K, Grad>(a, vx, vy, negGamma, qx, qy, j, _mm256_and_pd(_mm256_loadu_pd(qw + j), keep));
     j += 4;
   }
-  for (; j < j1; j += 4) step(j, _mm256_loadu_pd(qw + j));
-  auto hsum = [](__m256d v) {
-    const __m128d lo = _mm256_castpd256_pd128(v), hi = _mm256_extractf128_pd(v, 1);
-    const __m128d pair = _mm_add_pd(lo, hi);
-    return _mm_cvtsd_f64(_mm_add_sd(pair, _mm_unpackhi_pd(pair, pair)));
-  };
-  acc.s += hsum(s);
+  for (; j < j1; j += 4) step4<K, Grad>(a, vx, vy, negGamma, qx, qy, j, _mm256_loadu_pd(qw + j));
+  acc.s += hsum4(a.s);
   if constexpr (Grad) {
-    acc.gx += hsum(gx);
-    acc.gy += hsum(gy);
+    acc.gx += hsum4(a.gx);
+    acc.gy += hsum4(a.gy);
   }
-#else
+}
+#endif
+
+// The generic form: any CPU.
+template <PairKernel K, bool Grad>
+void accumulateRowScalar(double px, double py, const PackedPoints& q, Index j0, Index j1, Index from,
+                         double gamma, RowAcc& acc) {
+  const double* qx = q.x();
+  const double* qy = q.y();
+  const double* qw = q.w();
   for (Index j = std::max(j0, from); j < j1; ++j) {
     const double dx = px - qx[j], dy = py - qy[j];
     const double d2 = dx * dx + dy * dy;
@@ -111,7 +129,18 @@ void accumulateRow(double px, double py, const PackedPoints& q, Index j0, Index 
       }
     }
   }
+}
+
+// Adds sum_j w_j k(p, q_j) (and the gradient sums) over columns [j0, j1) to acc; columns
+// j < from are left out. j0 and j1 are multiples of 4 (the padding guarantees j1).
+template <PairKernel K, bool Grad>
+void accumulateRow(bool avx, double px, double py, const PackedPoints& q, Index j0, Index j1, Index from,
+                   double gamma, RowAcc& acc) {
+#ifdef BARROW_X86_SIMD
+  if (avx) return accumulateRowAvx2<K, Grad>(px, py, q, j0, j1, from, gamma, acc);
 #endif
+  (void)avx;
+  accumulateRowScalar<K, Grad>(px, py, q, j0, j1, from, gamma, acc);
 }
 
 Index floor4(Index j) { return j / 4 * 4; }
@@ -130,12 +159,13 @@ bool tiledRows(const PackedPoints& p, const PackedPoints& q, bool upper, double 
       [&](int b) {
         const Index r0 = b * kRowBlock, r1 = std::min(n, r0 + kRowBlock);
         RowAcc acc[kRowBlock];
+        const bool avx = cpuHasAvx2Fma();
         for (Index t0 = upper ? floor4(r0 + 1) : 0; t0 < q.paddedSize(); t0 += kColTile) {
           const Index t1 = std::min(q.paddedSize(), t0 + kColTile);
           for (Index i = r0; i < r1; ++i) {
             const Index from = upper ? i + 1 : 0;
             const Index j0 = std::max(t0, floor4(from));
-            if (j0 < t1) accumulateRow<K, Grad>(p.x()[i], p.y()[i], q, j0, t1, from, gamma, acc[i - r0]);
+            if (j0 < t1) accumulateRow<K, Grad>(avx, p.x()[i], p.y()[i], q, j0, t1, from, gamma, acc[i - r0]);
           }
         }
         finish(b, r0, r1, acc);

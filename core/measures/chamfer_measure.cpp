@@ -11,11 +11,11 @@ constexpr const char* kSquared = "chamfer.squared";
 }
 
 std::vector<ParamSpec> ChamferMeasure::params() const {
-  ParamSpec squared;
-  squared.key = kSquared;
-  squared.kind = ParamKind::Boolean;
-  squared.defaultValue = "false";
-  squared.help = "true: use squared nearest-neighbour distances (value in squared coordinate units)";
+  const ParamSpec squared{
+      .key = kSquared,
+      .kind = ParamKind::Boolean,
+      .defaultValue = "false",
+      .help = "true: use squared nearest-neighbour distances (value in squared coordinate units)"};
   return {squared};
 }
 
@@ -27,7 +27,7 @@ Result ChamferMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContex
   const SupportPoints sa = supportOf(a), sb = supportOf(b);
   const bool squared = ctx.params.boolean(kSquared);
   const MutualNearest nn = mutualNearest(sa.points, sb.points, WorkSlice{ctx.control});
-  if (!nn.complete) return cancelledResult(id());
+  if (!nn.complete) return Result::cancelled(id() + ": cancelled");
   auto term = [squared](double d) { return squared ? d * d : d; };
   double ab = 0.0, ba = 0.0;
   for (Eigen::Index i = 0; i < sa.size(); ++i) ab += sa.weights(i) * term(nn.ab.distance[std::size_t(i)]);

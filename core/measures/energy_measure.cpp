@@ -15,7 +15,7 @@ Result EnergyMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext
     return *r;
   const SupportPoints sa = supportOf(a), sb = supportOf(b);
   const DiscrepancySums s = discrepancySums(sa, sb, {PairKernel::Distance, 0.0}, WorkSlice{ctx.control});
-  if (!s.complete) return cancelledResult(id());
+  if (!s.complete) return Result::cancelled(id() + ": cancelled");
   const double e = 2.0 * s.ab - s.aaOffDiagonal - s.bbOffDiagonal;  // the diagonal terms are 0
   Result r = Result::ok(std::sqrt(std::max(e, 0.0)));
   r.details["energy"] = e;

@@ -26,40 +26,40 @@ struct EntropicWarm : WarmState {
 }  // namespace
 
 std::vector<ParamSpec> entropicParamSpecs(const std::string& group) {
-  ParamSpec eps;
-  eps.key = group + ".epsilon";
-  eps.kind = ParamKind::Real;
-  eps.defaultValue = "auto";
-  eps.choices = {"auto"};
-  eps.min = 0.0;
-  eps.minExclusive = true;
-  eps.unit = "cost units";
-  eps.help = "entropic regularisation ε, absolute in cost units (length^p); auto = (D/20)^p with D "
-             "the joint diameter of A and B, frozen at a sweep's reference";
-  ParamSpec p;
-  p.key = group + ".p";
-  p.kind = ParamKind::Integer;
-  p.defaultValue = "2";
-  p.min = 1;
-  p.max = 2;
-  p.help = "ground cost |x-y|^p: 1 or 2";
-  ParamSpec iters;
-  iters.key = group + ".max_iterations";
-  iters.kind = ParamKind::Integer;
-  iters.defaultValue = "10000";
-  iters.min = 1;
-  iters.max = 1e8;
-  iters.unit = "iterations";
-  iters.help = "Sinkhorn iteration budget (annealing included); beyond it the result is not-converged";
-  ParamSpec tol;
-  tol.key = group + ".tolerance";
-  tol.kind = ParamKind::Real;
-  tol.defaultValue = "1e-6";
-  tol.min = 0.0;
-  tol.minExclusive = true;
-  tol.max = 0.5;
-  tol.help = "stop when the L1 error of the plan's marginals (masses sum to 1) is below this; the "
-             "value itself is typically accurate to far better";
+  const ParamSpec eps{
+      .key = group + ".epsilon",
+      .kind = ParamKind::Real,
+      .defaultValue = "auto",
+      .min = 0.0,
+      .minExclusive = true,
+      .choices = {"auto"},
+      .unit = "cost units",
+      .help = "entropic regularisation ε, absolute in cost units (length^p); auto = (D/20)^p with D "
+            "the joint diameter of A and B, frozen at a sweep's reference"};
+  const ParamSpec p{
+      .key = group + ".p",
+      .kind = ParamKind::Integer,
+      .defaultValue = "2",
+      .min = 1,
+      .max = 2,
+      .help = "ground cost |x-y|^p: 1 or 2"};
+  const ParamSpec iters{
+      .key = group + ".max_iterations",
+      .kind = ParamKind::Integer,
+      .defaultValue = "10000",
+      .min = 1,
+      .max = 1e8,
+      .unit = "iterations",
+      .help = "Sinkhorn iteration budget (annealing included); beyond it the result is not-converged"};
+  const ParamSpec tol{
+      .key = group + ".tolerance",
+      .kind = ParamKind::Real,
+      .defaultValue = "1e-6",
+      .min = 0.0,
+      .max = 0.5,
+      .minExclusive = true,
+      .help = "stop when the L1 error of the plan's marginals (masses sum to 1) is below this; the "
+            "value itself is typically accurate to far better"};
   return {eps, p, iters, tol};
 }
 
@@ -141,7 +141,7 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
       previous = w;
     }
   }
-  kernel::RowWorkers team;
+  kernel::RowWorkers team(ctx.threads());
   SinkhornResult sr = solveSinkhorn(a.points, wa, b.points, wb, o, ctx.control, &start, &team);
   if (sr.status == SinkhornStatus::InvalidInput) return Result::invalid("entropic: " + sr.message);
 
@@ -184,7 +184,7 @@ std::optional<Eigen::MatrixX2d> EntropicMeasure::gradientA(const Cloud& a, const
   const EntropicSettings s = readEntropicSettings("entropic", ctx.params, a, b);
   if (!s.error.empty() || !r.usable()) return std::nullopt;
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
-  kernel::RowWorkers team;
+  kernel::RowWorkers team(ctx.threads());
   // Re-solve from r's potentials: one pass confirms them (or finishes them if r stopped short
   // of the tolerance), so the gradient always belongs to a solved problem.
   SinkhornStart start{&r.u, &r.v};

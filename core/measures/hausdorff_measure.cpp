@@ -21,7 +21,7 @@ std::pair<double, Eigen::Index> farthest(const NearestBatch& nb) {
 Result HausdorffMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   const SupportPoints sa = supportOf(a), sb = supportOf(b);
   const MutualNearest nn = mutualNearest(sa.points, sb.points, WorkSlice{ctx.control});
-  if (!nn.complete) return cancelledResult(id());
+  if (!nn.complete) return Result::cancelled(id() + ": cancelled");
   const auto [hab, i] = farthest(nn.ab);
   const auto [hba, j] = farthest(nn.ba);
   Result r = Result::ok(std::max(hab, hba));

@@ -11,12 +11,7 @@ namespace barrow {
 
 Result histogramEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const DensitySettings& s,
                          const EvalContext& ctx) {
-  if (ctx.shouldStop(0.0)) {
-    Result r;
-    r.status = Status::Cancelled;
-    r.message = "cancelled";
-    return r;
-  }
+  if (ctx.shouldStop(0.0)) return Result::cancelled();
   HistogramGrid grid;
   nlohmann::json d = {{"estimator", "hist"}};
   std::optional<PooledStats> stats;

@@ -65,9 +65,7 @@ Result kdeEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
     if (!cancelled) in = integrateKdeDivergence(pair, kind);
   }
   if (cancelled) {
-    Result r;
-    r.status = Status::Cancelled;
-    r.message = "cancelled";
+    Result r = Result::cancelled();
     r.details = std::move(d);
     return r;
   }

@@ -26,12 +26,7 @@ Result knnEstimate(const Cloud& a, const Cloud& b, DivergenceKind kind, const De
     return Result::invalid(m.str());
   }
   const KnnKl est = knnKl(*p, *q, s.k, nameP, nameQ, ctx.control);
-  if (est.cancelled) {
-    Result r;
-    r.status = Status::Cancelled;
-    r.message = "cancelled";
-    return r;
-  }
+  if (est.cancelled) return Result::cancelled();
   if (!est.error.empty()) return Result::invalid(est.error);
 
   Result r = Result::ok(est.value);

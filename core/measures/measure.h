@@ -26,6 +26,8 @@ struct EvalContext {
   bool wantPlan = false;
 
   bool shouldStop(double fraction = -1.0) const { return control && control->shouldStop(fraction); }
+  /// Threads the measure may keep busy, row teams included (the control's budget).
+  int threads() const { return threadBudget(control); }
 };
 
 class Measure {

@@ -1,4 +1,4 @@
-// Small helpers for building Results, shared by the kernel and geometric measures.
+// A guard shared by the kernel and geometric measures (cancelled results: Result::cancelled).
 #pragma once
 
 #include <cmath>
@@ -7,14 +7,6 @@
 #include "measures/result.h"
 
 namespace barrow {
-
-/// The result of a computation stopped through RunControl.
-inline Result cancelledResult(const std::string& what) {
-  Result r;
-  r.status = Status::Cancelled;
-  r.message = what + ": cancelled";
-  return r;
-}
 
 /// `r` unless its value is not finite: squared distances overflow double precision once
 /// coordinates differ by more than ~1e154, and the measure's value is then meaningless.

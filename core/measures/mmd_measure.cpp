@@ -69,25 +69,25 @@ std::string MmdMeasure::formula() const {
 }
 
 std::vector<ParamSpec> MmdMeasure::params() const {
-  ParamSpec sigma;
-  sigma.key = kSigma;
-  sigma.kind = ParamKind::Real;
-  sigma.defaultValue = "median";
-  sigma.min = 0.0;
-  sigma.minExclusive = true;
-  sigma.choices = {"median"};
-  sigma.unit = "coordinate units";
-  sigma.help = "Gaussian kernel bandwidth sigma in exp(-|x-y|^2/(2 sigma^2)); 'median' = the median "
-               "Euclidean distance over the pooled points of A and B of positive weight, unweighted, each "
-               "unordered pair once, no pair of a point with itself (even count: mean of the two middle "
-               "values, as numpy.median); fixed once per sweep";
-  ParamSpec estimator;
-  estimator.key = kEstimator;
-  estimator.kind = ParamKind::Choice;
-  estimator.defaultValue = "biased";
-  estimator.choices = {"biased", "unbiased"};
-  estimator.help = "biased: V-statistic over all pairs; unbiased: drops the i = j terms within each cloud "
-                   "and divides by 1 - sum w_i^2 (the U-statistic for equal weights; may be < 0)";
+  const ParamSpec sigma{
+      .key = kSigma,
+      .kind = ParamKind::Real,
+      .defaultValue = "median",
+      .min = 0.0,
+      .minExclusive = true,
+      .choices = {"median"},
+      .unit = "coordinate units",
+      .help = "Gaussian kernel bandwidth sigma in exp(-|x-y|^2/(2 sigma^2)); 'median' = the median "
+            "Euclidean distance over the pooled points of A and B of positive weight, unweighted, each "
+            "unordered pair once, no pair of a point with itself (even count: mean of the two middle "
+            "values, as numpy.median); fixed once per sweep"};
+  const ParamSpec estimator{
+      .key = kEstimator,
+      .kind = ParamKind::Choice,
+      .defaultValue = "biased",
+      .choices = {"biased", "unbiased"},
+      .help = "biased: V-statistic over all pairs; unbiased: drops the i = j terms within each cloud "
+            "and divides by 1 - sum w_i^2 (the U-statistic for equal weights; may be < 0)"};
   return {sigma, estimator};
 }
 
@@ -108,12 +108,12 @@ Result MmdMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& c
   const WorkSlice all{ctx.control, 0.0, 1.0};
   const bool median = ctx.params.isWord(kSigma, "median");
   const Bandwidth bw = chooseBandwidth(sa, sb, ctx.params, all.sub(0.0, median ? 0.3 : 0.0));
-  if (!bw.complete) return cancelledResult(id());
+  if (!bw.complete) return Result::cancelled(id() + ": cancelled");
   if (!bw.error.empty()) return Result::invalid(bw.error);
 
   const PairKernelSpec kernel{PairKernel::Gaussian, 1.0 / (2.0 * bw.sigma * bw.sigma)};
   const DiscrepancySums s = discrepancySums(sa, sb, kernel, all.sub(median ? 0.3 : 0.0, 1.0));
-  if (!s.complete) return cancelledResult(id());
+  if (!s.complete) return Result::cancelled(id() + ": cancelled");
   const double mmd2 = unbiased ? s.aaOffDiagonal / (1.0 - s.sumSquaresA) + s.bbOffDiagonal / (1.0 - s.sumSquaresB) -
                                      2.0 * s.ab
                                : s.aaDiagonal + s.aaOffDiagonal + s.bbDiagonal + s.bbOffDiagonal - 2.0 * s.ab;

@@ -40,6 +40,12 @@ void MeasureRegistry::add(std::unique_ptr<Measure> m) {
   owned_.push_back(std::move(m));
 }
 
+std::size_t MeasureRegistry::rank(const std::string& id) const {
+  for (std::size_t k = 0; k < view_.size(); ++k)
+    if (view_[k]->id() == id) return k;
+  return view_.size();
+}
+
 const Measure* MeasureRegistry::find(const std::string& id) const {
   for (const Measure* m : view_)
     if (m->id() == id) return m;

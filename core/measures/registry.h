@@ -17,6 +17,8 @@ class MeasureRegistry {
   const std::vector<const Measure*>& all() const { return view_; }
   /// nullptr when no measure has that id.
   const Measure* find(const std::string& id) const;
+  /// Position of `id` in all() (all().size() when unknown): the order tables and lists use.
+  std::size_t rank(const std::string& id) const;
   /// Union of every measure's parameter specs (each key once).
   std::vector<ParamSpec> allParams() const;
 

@@ -24,12 +24,17 @@ struct Result {
   /// e.g. {"estimator":"hist","bin":0.25}, {"epsilon":0.01,"marginal_error":3e-10}.
   nlohmann::json details = nlohmann::json::object();
 
-  bool usable() const {
-    return status == Status::Ok || status == Status::Infinite || status == Status::NotConverged;
-  }
+  bool usable() const { return barrow::usable(status); }
   static Result invalid(std::string why) {
     Result r;
     r.message = std::move(why);
+    return r;
+  }
+  /// A computation stopped through RunControl; `message` says which, when known.
+  static Result cancelled(std::string message = "cancelled") {
+    Result r;
+    r.status = Status::Cancelled;
+    r.message = std::move(message);
     return r;
   }
   static Result ok(double value) {

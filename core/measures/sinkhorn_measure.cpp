@@ -59,13 +59,7 @@ const Eigen::VectorXd* selfStart(const SinkhornResult& prev, Eigen::Index n) {
 }
 
 // Progress of one sub-solve mapped into [lo, hi] of the caller's range.
-RunControl subControl(const RunControl* c, double lo, double hi) {
-  RunControl s;
-  if (!c) return s;
-  s.cancel = c->cancel;
-  if (c->onProgress) s.onProgress = [c, lo, hi](double f) { return c->onProgress(lo + (hi - lo) * f); };
-  return s;
-}
+RunControl subControl(const RunControl* c, double lo, double hi) { return c ? c->sub(lo, hi) : RunControl{}; }
 
 // The three problems (OT_ε(b,b) only when `withB`: the gradient in A does not need it).
 ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, const EvalContext& ctx,
@@ -114,7 +108,7 @@ ParamSet SinkhornMeasure::freeze(const Cloud& a, const Cloud& b, const ParamSet&
 Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   const EntropicSettings s = readEntropicSettings(kGroup, ctx.params, a, b);
   if (!s.error.empty()) return Result::invalid(s.error);
-  kernel::RowWorkers team;
+  kernel::RowWorkers team(ctx.threads());
   ThreeSolves t = solveAll(a, b, s, ctx, team);
 
   Result r;
@@ -127,11 +121,7 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   r.status = Status::Ok;
   for (const auto& [name, sr] : parts) {
     if (sr->status == SinkhornStatus::InvalidInput) return Result::invalid(std::string("sinkhorn: ") + sr->message);
-    if (sr->status == SinkhornStatus::Cancelled) {
-      r.status = Status::Cancelled;
-      r.message = "cancelled";
-      return r;
-    }
+    if (sr->status == SinkhornStatus::Cancelled) return Result::cancelled();
     if (sr->status == SinkhornStatus::MaxIterations) {
       r.status = Status::NotConverged;
       r.message += std::string(r.message.empty() ? "" : "; ") + name + " " + sr->message;
@@ -183,7 +173,7 @@ std::optional<Eigen::MatrixX2d> SinkhornMeasure::gradientA(const Cloud& a, const
   const EntropicSettings s = readEntropicSettings(kGroup, ctx.params, a, b);
   if (!s.error.empty() || !r.usable()) return std::nullopt;
   // The potentials of the three problems: instant when ctx.warm holds evaluate()'s state.
-  kernel::RowWorkers team;
+  kernel::RowWorkers team(ctx.threads());
   const ThreeSolves t = solveAll(a, b, s, ctx, team, false);
   if (!t.ab.usable() || !t.aa.usable()) return std::nullopt;
   const SinkhornOptions& o = s.options;

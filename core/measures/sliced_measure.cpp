@@ -34,7 +34,7 @@ template <class Work>
 bool forEachDirection(const Cloud& a, const Cloud& b, int count, const RunControl* control, Work work) {
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
   const long long perDirection = a.size() + b.size();
-  kernel::RowWorkers team(perDirection * count < 20000 ? 1 : 0);
+  kernel::RowWorkers team(perDirection * count < 20000 ? 1 : threadBudget(control));
   const int block = std::max(team.threads() * 4, 16);
   for (int k0 = 0; k0 < count; k0 += block) {
     if (control && control->shouldStop(double(k0) / count)) return false;
@@ -53,31 +53,25 @@ bool forEachDirection(const Cloud& a, const Cloud& b, int count, const RunContro
   return true;
 }
 
-Result stopped() {
-  Result r;
-  r.status = Status::Cancelled;
-  r.message = "cancelled";
-  return r;
-}
 
 }  // namespace
 
 std::vector<ParamSpec> SlicedMeasure::params() const {
-  ParamSpec k;
-  k.key = "sliced.directions";
-  k.kind = ParamKind::Integer;
-  k.defaultValue = "64";
-  k.min = 1;
-  k.max = 100000;
-  k.unit = "directions";
-  k.help = "number K of projection directions, at angles (k+1/2)pi/K in [0, pi)";
-  ParamSpec p;
-  p.key = "sliced.p";
-  p.kind = ParamKind::Integer;
-  p.defaultValue = "2";
-  p.min = 1;
-  p.max = 2;
-  p.help = "2: sqrt of the mean W2^2 over directions; 1: the mean W1";
+  const ParamSpec k{
+      .key = "sliced.directions",
+      .kind = ParamKind::Integer,
+      .defaultValue = "64",
+      .min = 1,
+      .max = 100000,
+      .unit = "directions",
+      .help = "number K of projection directions, at angles (k+1/2)pi/K in [0, pi)"};
+  const ParamSpec p{
+      .key = "sliced.p",
+      .kind = ParamKind::Integer,
+      .defaultValue = "2",
+      .min = 1,
+      .max = 2,
+      .help = "2: sqrt of the mean W2^2 over directions; 1: the mean W1"};
   return {k, p};
 }
 
@@ -94,7 +88,7 @@ Result SlicedMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext
                                        perDirection[k] = solver.solve(pa.data(), wa.data(), int(pa.size()), pb.data(),
                                                                       wb.data(), int(pb.size()), s.p);
                                      });
-  if (!done) return stopped();
+  if (!done) return Result::cancelled();
   double mean = 0.0;
   for (double v : perDirection) mean += v;  // in direction order: deterministic sum
   mean /= s.directions;

@@ -36,10 +36,7 @@ Result WassersteinMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalCo
   Result r;
   switch (s.status) {
     case ExactOtStatus::InvalidInput: return Result::invalid(s.message);
-    case ExactOtStatus::Cancelled:
-      r.status = Status::Cancelled;
-      r.message = s.message;
-      return r;
+    case ExactOtStatus::Cancelled: return Result::cancelled(s.message);
     case ExactOtStatus::IterationLimit:
       r.status = Status::NotConverged;
       r.value = s.value;

@@ -18,7 +18,7 @@ Session demoSession(int pointsPerBatch) {
   batch.center = {1.2, 0.15};
   batch.seed = 20261203;
   s.b = generate(batch, "batch after slip");
-  s.sweep.family = "shift";
+  s.sweep.family = Family::Shift;
   s.sweep.direction = {1.0, 0.0};
   s.sweep.from = -0.5;
   s.sweep.to = 2.5;

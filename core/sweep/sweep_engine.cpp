@@ -10,6 +10,7 @@
 #include <mutex>
 #include <thread>
 
+#include "base/busy_probe.h"
 #include "families/family_map.h"
 #include "measures/registry.h"
 #include "measures/units.h"
@@ -50,8 +51,13 @@ class SweepRun {
   /// one per thread, so that warm starts pass between neighbouring θ.
   void evaluate(std::vector<Row*>& rows, double progressFrom, double progressTo) {
     const int t = std::max(1, std::min<int>(threads_, int(rows.size())));
+    // The budget is shared: t sweep threads leave each measure threads_ / t (row teams and
+    // block runners inside a measure read it from the control), so the cores are never
+    // oversubscribed by nesting.
+    inner_.threads = std::max(1, threads_ / t);
     std::atomic<std::size_t> done{0};
     auto work = [&](int chunk) {
+      const BusyScope busy;
       const std::size_t lo = rows.size() * std::size_t(chunk) / std::size_t(t);
       const std::size_t hi = rows.size() * std::size_t(chunk + 1) / std::size_t(t);
       for (std::size_t k = lo; k < hi && !stopped(); ++k) {
@@ -309,14 +315,14 @@ SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, co
   const FamilyMap family(a, b, s);
   if (auto e = family.error()) return finish(*e);
 
-  const int threads = req.threads > 0 ? req.threads : std::max(1, int(std::thread::hardware_concurrency()));
+  const int threads = req.threads > 0 ? req.threads : threadBudget(control);
   out.threads = threads;
 
   // Freeze data-dependent settings on (A_θ0, B) and probe each measure there once.
   const double theta0 = s.referenceTheta();
   out.referenceTheta = theta0;
   const Cloud a0 = family.at(theta0);
-  const bool velocity = s.family != "mix" && req.analyticGradients;
+  const bool velocity = familySpec(s.family).pointsMove && req.analyticGradients;
   std::vector<SweepJob> jobs;
   jobs.reserve(measures.size());
   RunControl probeControl;

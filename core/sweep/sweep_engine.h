@@ -32,7 +32,7 @@ struct SweepRequest {
   ParamSet params;            // user settings, group.key = value, for every measure
   bool warmStart = true;      // pass solver state between neighbouring θ
   bool refineJumps = true;    // bisect around suspected jumps
-  int threads = 0;            // 0 = all cores
+  int threads = 0;            // threads in all, nested work included; 0 = the control's budget (all cores)
   bool analyticGradients = true;  // false: finite differences for every measure
   double thetaTolerance = 0.0;    // refinement stops at this θ width; 0 = 1e-5 × (to − from)
   int maxRefinePoints = 0;        // θ values refinement may insert; 0 = max(64, steps);

@@ -70,7 +70,7 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
   std::vector<std::pair<int, int>> violated;
   out.sinks = std::make_shared<SiteTree>(pr.bx, pr.by, pr.cost);
   // Pricing is worth more than one core once there are a few chunks of sources per thread.
-  if (pr.n() >= kMinSourcesForTeam) out.team = std::make_shared<kernel::RowWorkers>();
+  if (pr.n() >= kMinSourcesForTeam) out.team = std::make_shared<kernel::RowWorkers>(threadBudget(control));
   out.u.resize(pr.n());
   out.v.resize(pr.m());
   out.minima.window = kTieWindow * tol;
@@ -106,15 +106,6 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
   return out;
 }
 
-// `outer` seen through a window: progress f is reported as lo + (hi − lo)·f, so that the
-// levels of a coarse-to-fine solve report one rising fraction.
-RunControl within(const RunControl& outer, double lo, double hi) {
-  RunControl r;
-  r.cancel = outer.cancel;
-  if (outer.onProgress) r.onProgress = [&outer, lo, hi](double f) { return outer.onProgress(lo + (hi - lo) * f); };
-  return r;
-}
-
 // A cold solve: the start comes from a coarse solve of grouped points when the problem is
 // large enough for that to pay (it reports the first quarter of the progress), else from
 // the greedy (or north-west) rule on neighbours.
@@ -125,8 +116,8 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
   long long spent = 0, degenerate = 0;
   int rounds = 0;
   const bool coarseFirst = o.multiscale && std::min(pr.n(), pr.m()) > o.coarsestSize;
-  const RunControl coarseControl = control ? within(*control, 0.0, 0.25) : RunControl{};
-  const RunControl fineControl = control ? within(*control, coarseFirst ? 0.25 : 0.0, 1.0) : RunControl{};
+  const RunControl coarseControl = control ? control->sub(0.0, 0.25) : RunControl{};
+  const RunControl fineControl = control ? control->sub(coarseFirst ? 0.25 : 0.0, 1.0) : RunControl{};
   if (coarseFirst) {
     const CoarseProblem coarse = coarsen(pr, o.groupSize);
     const LevelOutcome c = solveCold(coarse.problem, o, control ? &coarseControl : nullptr, budget, error);

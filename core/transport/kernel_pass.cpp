@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include "base/cpu_features.h"
 #include "transport/kernel_pass_simd.h"
 
 namespace barrow::kernel {
@@ -15,10 +16,23 @@ constexpr double kInf = std::numeric_limits<double>::infinity();
 constexpr double kSumLow = 1e-250;
 constexpr double kSumHigh = 1e250;
 
-#ifdef BARROW_KERNEL_AVX2
+// The AVX2 form when the CPU has it (cpu_features.h), else the generic one.
+bool useAvx2() {
+#ifdef BARROW_X86_SIMD
+  return cpuHasAvx2Fma();
+#else
+  return false;
+#endif
+}
+
+#ifdef BARROW_X86_SIMD
+// The AVX2+FMA form, compiled for those instructions whatever the build flags and used only
+// when the CPU has them (cpuHasAvx2Fma).
+namespace avx2 {
+
 // c̃ for 4 columns from the broadcast row point (xr, yr).
 template <int P>
-inline __m256d cost4(__m256d xr, __m256d yr, const double* xc, const double* yc, int j,
+BARROW_AVX2_FN inline __m256d cost4(__m256d xr, __m256d yr, const double* xc, const double* yc, int j,
                      __m256d* dx, __m256d* dy) {
   *dx = _mm256_sub_pd(xr, _mm256_loadu_pd(xc + j));
   *dy = _mm256_sub_pd(yr, _mm256_loadu_pd(yc + j));
@@ -29,7 +43,7 @@ inline __m256d cost4(__m256d xr, __m256d yr, const double* xc, const double* yc,
 
 // Σ_j exp(h_j − c̃_ij − s) over one row.
 template <int P>
-double rowSum(double xi, double yi, const ScaledPoints& cols, const double* h, double s) {
+BARROW_AVX2_FN double rowSum(double xi, double yi, const ScaledPoints& cols, const double* h, double s) {
   const __m256d xr = _mm256_set1_pd(xi), yr = _mm256_set1_pd(yi), sv = _mm256_set1_pd(s);
   __m256d acc0 = _mm256_setzero_pd(), acc1 = _mm256_setzero_pd();
   const double* xc = cols.x.data();
@@ -54,7 +68,7 @@ double rowSum(double xi, double yi, const ScaledPoints& cols, const double* h, d
 
 // max_j (h_j − c̃_ij) over one row.
 template <int P>
-double rowMax(double xi, double yi, const ScaledPoints& cols, const double* h) {
+BARROW_AVX2_FN double rowMax(double xi, double yi, const ScaledPoints& cols, const double* h) {
   const __m256d xr = _mm256_set1_pd(xi), yr = _mm256_set1_pd(yi);
   __m256d best = _mm256_set1_pd(-kInf);
   __m256d dx, dy;
@@ -66,7 +80,7 @@ double rowMax(double xi, double yi, const ScaledPoints& cols, const double* h) {
 }
 
 template <int P>
-void rowGradient(double xi, double yi, const ScaledPoints& cols, const double* h, double o,
+BARROW_AVX2_FN void rowGradient(double xi, double yi, const ScaledPoints& cols, const double* h, double o,
                  double* s0, double* sx, double* sy) {
   const __m256d xr = _mm256_set1_pd(xi), yr = _mm256_set1_pd(yi), ov = _mm256_set1_pd(o);
   __m256d a0 = _mm256_setzero_pd(), ax = _mm256_setzero_pd(), ay = _mm256_setzero_pd();
@@ -90,7 +104,7 @@ void rowGradient(double xi, double yi, const ScaledPoints& cols, const double* h
 }
 
 template <int P>
-void rowKernel(double xi, double yi, const ScaledPoints& cols, const double* h, double o, double* out) {
+BARROW_AVX2_FN void rowKernel(double xi, double yi, const ScaledPoints& cols, const double* h, double o, double* out) {
   const __m256d xr = _mm256_set1_pd(xi), yr = _mm256_set1_pd(yi), ov = _mm256_set1_pd(o);
   __m256d dx, dy;
   for (int j = 0; j < cols.padded(); j += 4) {
@@ -98,7 +112,13 @@ void rowKernel(double xi, double yi, const ScaledPoints& cols, const double* h, 
     _mm256_storeu_pd(out + j, exp4(_mm256_sub_pd(_mm256_sub_pd(_mm256_loadu_pd(h + j), ov), c)));
   }
 }
-#else
+
+}  // namespace avx2
+#endif
+
+// The generic form: any CPU.
+namespace scalar {
+
 template <int P>
 inline double costScalar(double dx, double dy) {
   const double d2 = dx * dx + dy * dy;
@@ -146,23 +166,41 @@ void rowKernel(double xi, double yi, const ScaledPoints& cols, const double* h, 
   for (int j = 0; j < cols.padded(); ++j)
     out[j] = expScalar(h[j] - o - costScalar<P>(xi - cols.x[j], yi - cols.y[j]));
 }
-#endif
 
-template <int P>
+}  // namespace scalar
+
+// One form's row functions, chosen once per pass.
+template <int P, bool Avx>
+double rowSum(double xi, double yi, const ScaledPoints& cols, const double* h, double s) {
+#ifdef BARROW_X86_SIMD
+  if constexpr (Avx) return avx2::rowSum<P>(xi, yi, cols, h, s);
+#endif
+  return scalar::rowSum<P>(xi, yi, cols, h, s);
+}
+
+template <int P, bool Avx>
+double rowMax(double xi, double yi, const ScaledPoints& cols, const double* h) {
+#ifdef BARROW_X86_SIMD
+  if constexpr (Avx) return avx2::rowMax<P>(xi, yi, cols, h);
+#endif
+  return scalar::rowMax<P>(xi, yi, cols, h);
+}
+
+template <int P, bool Avx>
 void lseRange(int begin, int end, const ScaledPoints& rows, const ScaledPoints& cols, const double* h,
               const double* guess, double* out, double* ratio) {
   for (int i = begin; i < end; ++i) {
     const double xi = rows.x[i], yi = rows.y[i];
     const double g = guess ? guess[i] : 0.0;
-    double s = std::isfinite(g) ? rowSum<P>(xi, yi, cols, h, g) : 0.0;
+    double s = std::isfinite(g) ? rowSum<P, Avx>(xi, yi, cols, h, g) : 0.0;
     if (s >= kSumLow && s <= kSumHigh) {
       out[i] = g + std::log(s);
       if (ratio) ratio[i] = s;
       continue;
     }
     // Poor stabiliser: take the exact row maximum, so the largest term is exp(0) = 1.
-    const double mx = rowMax<P>(xi, yi, cols, h);
-    s = rowSum<P>(xi, yi, cols, h, mx);
+    const double mx = rowMax<P, Avx>(xi, yi, cols, h);
+    s = rowSum<P, Avx>(xi, yi, cols, h, mx);
     out[i] = mx + std::log(s);
     if (ratio) ratio[i] = std::isfinite(g) ? std::exp(out[i] - g) : kInf;
   }
@@ -197,27 +235,45 @@ int grainFor(int rows, int cols) {
 void logSumExpRows(const ScaledPoints& rows, const ScaledPoints& cols, const std::vector<double>& h,
                    int p, const double* guess, double* out, double* ratio, RowWorkers& workers) {
   const double* hp = h.data();
+  const bool avx = useAvx2();
   workers.run(rows.size, grainFor(rows.size, cols.size), [&](int b, int e) {
-    if (p == 2) lseRange<2>(b, e, rows, cols, hp, guess, out, ratio);
-    else lseRange<1>(b, e, rows, cols, hp, guess, out, ratio);
+    if (avx && p == 2) lseRange<2, true>(b, e, rows, cols, hp, guess, out, ratio);
+    else if (avx) lseRange<1, true>(b, e, rows, cols, hp, guess, out, ratio);
+    else if (p == 2) lseRange<2, false>(b, e, rows, cols, hp, guess, out, ratio);
+    else lseRange<1, false>(b, e, rows, cols, hp, guess, out, ratio);
   });
 }
 
 void gradientRows(const ScaledPoints& rows, const ScaledPoints& cols, const std::vector<double>& h,
                   int p, const double* o, double* s0, double* sx, double* sy, RowWorkers& workers) {
   const double* hp = h.data();
+  const bool avx = useAvx2();
   workers.run(rows.size, grainFor(rows.size, cols.size), [&](int b, int e) {
     for (int i = b; i < e; ++i) {
-      if (p == 2) rowGradient<2>(rows.x[i], rows.y[i], cols, hp, o[i], s0 + i, sx + i, sy + i);
-      else rowGradient<1>(rows.x[i], rows.y[i], cols, hp, o[i], s0 + i, sx + i, sy + i);
+#ifdef BARROW_X86_SIMD
+      if (avx) {
+        if (p == 2) avx2::rowGradient<2>(rows.x[i], rows.y[i], cols, hp, o[i], s0 + i, sx + i, sy + i);
+        else avx2::rowGradient<1>(rows.x[i], rows.y[i], cols, hp, o[i], s0 + i, sx + i, sy + i);
+        continue;
+      }
+#endif
+      if (p == 2) scalar::rowGradient<2>(rows.x[i], rows.y[i], cols, hp, o[i], s0 + i, sx + i, sy + i);
+      else scalar::rowGradient<1>(rows.x[i], rows.y[i], cols, hp, o[i], s0 + i, sx + i, sy + i);
     }
   });
 }
 
 void kernelRow(const ScaledPoints& rows, int i, const ScaledPoints& cols, const std::vector<double>& h,
                int p, double o, double* out) {
-  if (p == 2) rowKernel<2>(rows.x[i], rows.y[i], cols, h.data(), o, out);
-  else rowKernel<1>(rows.x[i], rows.y[i], cols, h.data(), o, out);
+#ifdef BARROW_X86_SIMD
+  if (useAvx2()) {
+    if (p == 2) avx2::rowKernel<2>(rows.x[i], rows.y[i], cols, h.data(), o, out);
+    else avx2::rowKernel<1>(rows.x[i], rows.y[i], cols, h.data(), o, out);
+    return;
+  }
+#endif
+  if (p == 2) scalar::rowKernel<2>(rows.x[i], rows.y[i], cols, h.data(), o, out);
+  else scalar::rowKernel<1>(rows.x[i], rows.y[i], cols, h.data(), o, out);
 }
 
 }  // namespace barrow::kernel

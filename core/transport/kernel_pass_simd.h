@@ -1,5 +1,5 @@
-// Vectorised exp for the kernel passes (4 doubles per AVX2 register), with a scalar
-// fallback when the build has no AVX2 (BARROW_ARCH="").
+// Vectorised exp for the kernel passes (4 doubles per AVX2 register, used when the CPU has
+// AVX2+FMA: cpu_features.h), with a scalar form for other CPUs.
 //
 // Method: that of base/simd_exp.h (Cody & Waite reduction, degree-13 Taylor polynomial);
 // accuracy checked against std::exp in tests/core/sinkhorn_kernel_test.cpp.
@@ -11,33 +11,26 @@
 
 #include "base/simd_exp.h"
 
-#if defined(__AVX2__) && defined(__FMA__)
-#include <immintrin.h>
-#define BARROW_KERNEL_AVX2 1
-#endif
 
 namespace barrow::kernel {
 
-/// Number of doubles processed together; column arrays are padded to a multiple of it.
-#ifdef BARROW_KERNEL_AVX2
+/// Doubles in one AVX2 register; column arrays are padded to a multiple of it on every
+/// CPU, so one layout serves both forms of the passes.
 inline constexpr int kLanes = 4;
-#else
-inline constexpr int kLanes = 1;
-#endif
 
 /// Exponents below this give exactly 0.
 inline constexpr double kExpUnderflow = simd::kExpCutoff;
 
-#ifdef BARROW_KERNEL_AVX2
+#ifdef BARROW_X86_SIMD
 /// e^x for 4 doubles; see the file comment for the range. The algorithm is the one of the
 /// kernel sums (base/simd_exp.h), whose reduction holds for positive x as well.
-inline __m256d exp4(__m256d x) {
+BARROW_AVX2_FN inline __m256d exp4(__m256d x) {
   // min_pd returns its second operand when either is NaN: a NaN stays NaN and then gives 0.
   return simd::expNonPositive4(_mm256_min_pd(_mm256_set1_pd(709.78), x));
 }
 
 /// Sum of the 4 lanes.
-inline double hsum4(__m256d v) {
+BARROW_AVX2_FN inline double hsum4(__m256d v) {
   const __m128d lo = _mm256_castpd256_pd128(v);
   const __m128d hi = _mm256_extractf128_pd(v, 1);
   const __m128d s = _mm_add_pd(lo, hi);
@@ -45,7 +38,7 @@ inline double hsum4(__m256d v) {
 }
 
 /// Largest of the 4 lanes.
-inline double hmax4(__m256d v) {
+BARROW_AVX2_FN inline double hmax4(__m256d v) {
   const __m128d lo = _mm256_castpd256_pd128(v);
   const __m128d hi = _mm256_extractf128_pd(v, 1);
   const __m128d m = _mm_max_pd(lo, hi);

@@ -122,9 +122,9 @@ void finish(SinkhornResult& r, bool converged, bool cancelled, const SinkhornOpt
 struct Team {
   std::unique_ptr<RowWorkers> own;
   RowWorkers* use;
-  explicit Team(RowWorkers* given) : use(given) {
+  Team(RowWorkers* given, const RunControl* control) : use(given) {
     if (!use) {
-      own = std::make_unique<RowWorkers>();
+      own = std::make_unique<RowWorkers>(threadBudget(control));
       use = own.get();
     }
   }
@@ -155,7 +155,7 @@ SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a
   }
   const int n = int(x.rows()), m = int(y.rows());
   const Eigen::VectorXd a = aIn / aIn.sum(), b = bIn / bIn.sum();
-  Team team(workers);
+  Team team(workers, control);
   if (n == m && x == y && a == b) {
     // One measure on both sides: the plan is near the identity and each matched pair's f/g
     // split is almost free, which alternating updates explore very slowly (measured: marginal
@@ -239,7 +239,7 @@ SinkhornResult solveSinkhornSymmetric(const Eigen::MatrixX2d& x, const Eigen::Ve
   const int n = int(x.rows());
   const Eigen::VectorXd a = aIn / aIn.sum();
   const std::vector<double> logA = kernel::paddedLogWeights(a);
-  Team team(workers);
+  Team team(workers, control);
 
   r.f = Eigen::VectorXd::Zero(n);
   r.warmStarted = startF && startF->size() == n && startF->allFinite();

@@ -33,40 +33,54 @@ Eigen::MatrixX2d unitSquare(int n, unsigned seed) {
   return p;
 }
 
+#ifdef BARROW_X86_SIMD
+// One row of the floor pass in AVX2 (called only when the CPU has it, like the solver's).
+BARROW_AVX2_FN double floorRowAvx2(const kernel::ScaledPoints& xs, const kernel::ScaledPoints& ys, int i) {
+  const __m256d xr = _mm256_set1_pd(xs.x[i]), yr = _mm256_set1_pd(xs.y[i]);
+  __m256d acc0 = _mm256_setzero_pd(), acc1 = _mm256_setzero_pd();
+  int j = 0;
+  for (; j + 8 <= ys.padded(); j += 8) {
+    const __m256d dx0 = _mm256_sub_pd(xr, _mm256_loadu_pd(ys.x.data() + j));
+    const __m256d dy0 = _mm256_sub_pd(yr, _mm256_loadu_pd(ys.y.data() + j));
+    const __m256d dx1 = _mm256_sub_pd(xr, _mm256_loadu_pd(ys.x.data() + j + 4));
+    const __m256d dy1 = _mm256_sub_pd(yr, _mm256_loadu_pd(ys.y.data() + j + 4));
+    const __m256d c0 = _mm256_fmadd_pd(dx0, dx0, _mm256_mul_pd(dy0, dy0));
+    const __m256d c1 = _mm256_fmadd_pd(dx1, dx1, _mm256_mul_pd(dy1, dy1));
+    acc0 = _mm256_add_pd(acc0, kernel::exp4(_mm256_sub_pd(_mm256_setzero_pd(), c0)));
+    acc1 = _mm256_add_pd(acc1, kernel::exp4(_mm256_sub_pd(_mm256_setzero_pd(), c1)));
+  }
+  for (; j < ys.padded(); j += 4) {
+    const __m256d dx = _mm256_sub_pd(xr, _mm256_loadu_pd(ys.x.data() + j));
+    const __m256d dy = _mm256_sub_pd(yr, _mm256_loadu_pd(ys.y.data() + j));
+    acc0 = _mm256_add_pd(acc0, kernel::exp4(_mm256_sub_pd(_mm256_setzero_pd(),
+                                                          _mm256_fmadd_pd(dx, dx, _mm256_mul_pd(dy, dy)))));
+  }
+  return kernel::hsum4(_mm256_add_pd(acc0, acc1));
+}
+#endif
+
+double floorRowScalar(const kernel::ScaledPoints& xs, const kernel::ScaledPoints& ys, int i) {
+  double s = 0.0;
+  for (int j = 0; j < ys.size; ++j) {
+    const double dx = xs.x[i] - ys.x[j], dy = xs.y[i] - ys.y[j];
+    s += std::exp(-(dx * dx + dy * dy));
+  }
+  return s;
+}
+
 // Σ_ij exp(−|x_i − y_j|²/ε): the least work any kernel-based iteration must do per pair.
 double floorPass(const kernel::ScaledPoints& xs, const kernel::ScaledPoints& ys, kernel::RowWorkers& team,
                  std::vector<double>& rowSums) {
+  const bool avx = cpuHasAvx2Fma();
   team.run(xs.size, kernel::grainFor(xs.size, ys.size), [&](int b, int e) {
     for (int i = b; i < e; ++i) {
-#ifdef BARROW_KERNEL_AVX2
-      const __m256d xr = _mm256_set1_pd(xs.x[i]), yr = _mm256_set1_pd(xs.y[i]);
-      __m256d acc0 = _mm256_setzero_pd(), acc1 = _mm256_setzero_pd();
-      int j = 0;
-      for (; j + 8 <= ys.padded(); j += 8) {
-        const __m256d dx0 = _mm256_sub_pd(xr, _mm256_loadu_pd(ys.x.data() + j));
-        const __m256d dy0 = _mm256_sub_pd(yr, _mm256_loadu_pd(ys.y.data() + j));
-        const __m256d dx1 = _mm256_sub_pd(xr, _mm256_loadu_pd(ys.x.data() + j + 4));
-        const __m256d dy1 = _mm256_sub_pd(yr, _mm256_loadu_pd(ys.y.data() + j + 4));
-        const __m256d c0 = _mm256_fmadd_pd(dx0, dx0, _mm256_mul_pd(dy0, dy0));
-        const __m256d c1 = _mm256_fmadd_pd(dx1, dx1, _mm256_mul_pd(dy1, dy1));
-        acc0 = _mm256_add_pd(acc0, kernel::exp4(_mm256_sub_pd(_mm256_setzero_pd(), c0)));
-        acc1 = _mm256_add_pd(acc1, kernel::exp4(_mm256_sub_pd(_mm256_setzero_pd(), c1)));
+#ifdef BARROW_X86_SIMD
+      if (avx) {
+        rowSums[i] = floorRowAvx2(xs, ys, i);
+        continue;
       }
-      for (; j < ys.padded(); j += 4) {
-        const __m256d dx = _mm256_sub_pd(xr, _mm256_loadu_pd(ys.x.data() + j));
-        const __m256d dy = _mm256_sub_pd(yr, _mm256_loadu_pd(ys.y.data() + j));
-        acc0 = _mm256_add_pd(acc0, kernel::exp4(_mm256_sub_pd(_mm256_setzero_pd(),
-                                                              _mm256_fmadd_pd(dx, dx, _mm256_mul_pd(dy, dy)))));
-      }
-      rowSums[i] = kernel::hsum4(_mm256_add_pd(acc0, acc1));
-#else
-      double s = 0.0;
-      for (int j = 0; j < ys.size; ++j) {
-        const double dx = xs.x[i] - ys.x[j], dy = xs.y[i] - ys.y[j];
-        s += std::exp(-(dx * dx + dy * dy));
-      }
-      rowSums[i] = s;
 #endif
+      rowSums[i] = floorRowScalar(xs, ys, i);
     }
   });
   double total = 0.0;

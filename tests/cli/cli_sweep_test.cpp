@@ -19,13 +19,6 @@ int cli(const std::string& args, std::string* out = nullptr, std::string* err = 
 std::string segments(const char* which) { return test::samplesDir() + "/parallel_segments/" + which; }
 
 // The registered measures among `wanted`, comma-separated.
-std::string available(const std::vector<std::string>& wanted) {
-  std::string ids;
-  for (const auto& id : wanted)
-    if (MeasureRegistry::instance().find(id)) ids += (ids.empty() ? "" : ",") + id;
-  return ids;
-}
-
 std::vector<std::string> split(const std::string& line) {
   std::vector<std::string> out;
   std::stringstream ss(line);
@@ -55,8 +48,7 @@ Csv readCsv(const std::string& path) {
 }
 
 TEST(CliSweepTest, SweepWritesTheContractHeaderOneRowPerThetaAndSettings) {
-  const std::string ids = available({"sliced", "mmd", "js", "w1"});
-  if (ids.empty()) GTEST_SKIP() << "none of sliced, mmd, js, w1 is registered yet";
+  const std::string ids = "sliced,mmd,js,w1";
   const std::string path = test::tempPath("sweep.csv");
   std::string out, err;
   ASSERT_EQ(cli("sweep --a " + segments("a.csv") + " --b " + segments("b.csv") +
@@ -95,8 +87,6 @@ TEST(CliSweepTest, SweepWritesTheContractHeaderOneRowPerThetaAndSettings) {
 // KL with a histogram is +∞ once A_θ leaves B's bins (REFERENCES 1d): written `inf`, with an
 // empty slope; a measure that fails (σ too small for the kernel) leaves its cells empty.
 TEST(CliSweepTest, InfiniteCellsAreInfAndFailedCellsAreEmpty) {
-  if (!MeasureRegistry::instance().find("kl_ab") || !MeasureRegistry::instance().find("mmd"))
-    GTEST_SKIP() << "kl_ab or mmd is not registered yet";
   const std::string path = test::tempPath("sweep.csv");
   std::string out, err;
   ASSERT_EQ(cli("sweep --a " + segments("a.csv") + " --b " + segments("a.csv") +
@@ -154,8 +144,7 @@ void expectFindingsShape(const std::string& json, std::size_t measures) {
 }
 
 TEST(CliSweepTest, FindingsFromCsvAndFromSweepOptionsAgree) {
-  const std::string ids = available({"js", "sliced"});
-  if (ids.empty()) GTEST_SKIP() << "js and sliced are not registered yet";
+  const std::string ids = "js,sliced";
   const std::string opts = "--a " + segments("a.csv") + " --b " + segments("a.csv") +
                            " --family shift --from -1 --to 1 --steps 41 --measures " + ids +
                            " --set density.bin=0.25 --set density.origin=-0.125,-0.125";
@@ -177,7 +166,6 @@ TEST(CliSweepTest, FindingsFromCsvAndFromSweepOptionsAgree) {
 }
 
 TEST(CliSweepTest, DemoWritesCloudsAndSweepAndPrintsFindings) {
-  if (MeasureRegistry::instance().all().empty()) GTEST_SKIP() << "no measure is registered yet";
   const std::string dir = test::tempPath("demo");
   std::string out, err;
   ASSERT_EQ(cli("demo --out " + dir, &out, &err), 0) << err;

@@ -6,7 +6,7 @@
 #include <functional>
 
 #include "sweep/continuity.h"
-#include "sweep/findings_json.h"
+#include "io/findings_json.h"
 #include "sweep/finite_slope.h"
 
 namespace barrow {

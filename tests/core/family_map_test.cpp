@@ -23,7 +23,7 @@ Cloud cloudB() {
   return Cloud("B", p);
 }
 
-SweepSettings settings(const std::string& family) {
+SweepSettings settings(Family family) {
   SweepSettings s;
   s.family = family;
   return s;
@@ -35,7 +35,7 @@ Eigen::MatrixX2d numericVelocity(const FamilyMap& f, double theta, double h) {
 }
 
 TEST(FamilyMapTest, ShiftMovesEveryPointByThetaAlongTheUnitDirection) {
-  auto s = settings("shift");
+  auto s = settings(Family::Shift);
   s.direction = {3.0, 4.0};
   const FamilyMap f(cloudA(), cloudB(), s);
   ASSERT_FALSE(f.error());
@@ -53,7 +53,7 @@ TEST(FamilyMapTest, ShiftMovesEveryPointByThetaAlongTheUnitDirection) {
 }
 
 TEST(FamilyMapTest, RotateTurnsAboutTheWeightedCentroidInDegrees) {
-  const FamilyMap f(cloudA(), cloudB(), settings("rotate"));
+  const FamilyMap f(cloudA(), cloudB(), settings(Family::Rotate));
   ASSERT_FALSE(f.error());
   const Eigen::Vector2d c = cloudA().mean();  // (0.2·2 + 0.3·1 − 0.4·1, 0.3·3 + 0.4·1) = (0.3, 1.3)
   EXPECT_NEAR(c.x(), 0.3, 1e-15);
@@ -70,7 +70,7 @@ TEST(FamilyMapTest, RotateTurnsAboutTheWeightedCentroidInDegrees) {
 }
 
 TEST(FamilyMapTest, ScaleAboutAGivenPivot) {
-  auto s = settings("scale");
+  auto s = settings(Family::Scale);
   s.center = std::array<double, 2>{1.0, -2.0};
   const FamilyMap f(cloudA(), cloudB(), s);
   const Cloud q = f.at(3.0);
@@ -83,7 +83,7 @@ TEST(FamilyMapTest, ScaleAboutAGivenPivot) {
 }
 
 TEST(FamilyMapTest, MixIsTheUnionWithWeightsShared) {
-  const FamilyMap f(cloudA(), cloudB(), settings("mix"));
+  const FamilyMap f(cloudA(), cloudB(), settings(Family::Mix));
   const Cloud m = f.at(0.25);
   ASSERT_EQ(m.size(), 7);
   EXPECT_NEAR(m.weights.sum(), 1.0, 1e-15);
@@ -99,14 +99,14 @@ TEST(FamilyMapTest, MixIsTheUnionWithWeightsShared) {
 }
 
 TEST(FamilyMapTest, BadInputIsAnErrorNotACrash) {
-  auto s = settings("shift");
+  auto s = settings(Family::Shift);
   s.direction = {0.0, 0.0};
   EXPECT_TRUE(FamilyMap(cloudA(), cloudB(), s).error());
   EXPECT_TRUE(FamilyMap(cloudA(), cloudB(), settings("spin")).error());
-  EXPECT_TRUE(FamilyMap(Cloud("E", Eigen::MatrixX2d(0, 2)), cloudB(), settings("rotate")).error());
+  EXPECT_TRUE(FamilyMap(Cloud("E", Eigen::MatrixX2d(0, 2)), cloudB(), settings(Family::Rotate)).error());
   Cloud nan = cloudB();
   nan.points(2, 0) = NAN;
-  const FamilyMap bad(cloudA(), nan, settings("mix"));
+  const FamilyMap bad(cloudA(), nan, settings(Family::Mix));
   ASSERT_TRUE(bad.error());
   EXPECT_NE(bad.error()->find("B"), std::string::npos);
   EXPECT_EQ(bad.at(0.5).points, cloudA().points);  // documented fallback: A unchanged
@@ -114,21 +114,36 @@ TEST(FamilyMapTest, BadInputIsAnErrorNotACrash) {
 }
 
 TEST(FamilyMapTest, DefaultRangesSuitEachFamily) {
-  for (const auto& fam : familyNames()) {
-    const auto [lo, hi] = defaultFamilyRange(fam);
-    SweepSettings s = settings(fam);
-    s.from = lo;
-    s.to = hi;
-    EXPECT_FALSE(s.validate()) << fam;
+  for (const FamilySpec& spec : familySpecs()) {
+    SweepSettings s = settings(spec.family);
+    s.from = spec.from;
+    s.to = spec.to;
+    EXPECT_FALSE(s.validate()) << spec.name;
   }
-  EXPECT_EQ(defaultFamilyRange("rotate"), std::make_pair(-180.0, 180.0));
+  EXPECT_EQ(familySpec(Family::Rotate).from, -180.0);
+  EXPECT_EQ(familySpec(Family::Rotate).to, 180.0);
+}
+
+// The table is the only list of families: every enum value has one row, names are unique and
+// read back, and the error text lists them all [CP].
+TEST(FamilySpecTest, EveryFamilyHasOneRowAndItsNameReadsBack) {
+  const Family all[] = {Family::Shift, Family::Rotate, Family::Scale, Family::Interpolate, Family::Mix};
+  EXPECT_EQ(familySpecs().size(), std::size(all));
+  for (Family f : all) {
+    EXPECT_EQ(familySpec(f).family, f);
+    const FamilySpec* back = findFamily(familySpec(f).name);
+    ASSERT_NE(back, nullptr);
+    EXPECT_EQ(back->family, f);
+    EXPECT_NE(familyChoices().find(familySpec(f).name), std::string::npos);
+  }
+  EXPECT_EQ(findFamily("twist"), nullptr);
 }
 
 // Displacement interpolation along the exact W2 plan: every plan entry becomes one point of
 // the same mass at (1−t)x_i + t·y_j [P] McCann 1997; Villani 2003 §5.1 (mem).
 TEST(FamilyMapTest, InterpolateFollowsTheW2PlanEntries) {
-  if (!MeasureRegistry::instance().find("w2")) GTEST_SKIP() << "w2 is not registered yet";
-  const FamilyMap f(cloudA(), cloudB(), settings("interpolate"));
+  ASSERT_NE(MeasureRegistry::instance().find("w2"), nullptr) << "w2 is not registered";
+  const FamilyMap f(cloudA(), cloudB(), settings(Family::Interpolate));
   ASSERT_FALSE(f.error()) << *f.error();
   const auto& plan = f.plan();
   ASSERT_FALSE(plan.empty());

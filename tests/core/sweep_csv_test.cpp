@@ -12,7 +12,7 @@ namespace {
 
 SweepResult sample() {
   SweepResult r;
-  r.settings.family = "rotate";
+  r.settings.family = Family::Rotate;
   r.settings.center = std::array<double, 2>{0.5, -1.25};
   r.settings.from = -30;
   r.settings.to = 30;
@@ -77,7 +77,7 @@ TEST(SweepCsvTest, RoundTripKeepsEveryNumberAndSetting) {
   EXPECT_EQ(r.series[1].frozen.text("mmd.sigma"), "0.73");
   EXPECT_EQ(r.series[1].rules.text("mmd.sigma"), "median");
   EXPECT_TRUE(r.series[0].rules.values().empty());
-  EXPECT_EQ(r.settings.family, "rotate");
+  EXPECT_EQ(r.settings.family, Family::Rotate);
   ASSERT_TRUE(r.settings.center);
   EXPECT_EQ((*r.settings.center)[1], -1.25);
   EXPECT_EQ(r.settings.from, -30);

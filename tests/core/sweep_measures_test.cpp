@@ -43,11 +43,9 @@ class ParallelSegmentsSweep : public ::testing::Test {
     const std::vector<std::string> wanted = {"w1", "w2", "sliced", "mmd", "energy", "sinkhorn", "frechet",
                                              "hausdorff", "chamfer", "js", "tv", "kl_ab", "kl_ba", "hellinger"};
     SweepRequest req;
-    for (const auto& id : wanted)
-      if (measure(id)) req.settings.measures.push_back(id);
-    if (req.settings.measures.empty()) return;
+    req.settings.measures = wanted;  // an unregistered id fails the sweep, and every test here
     const Cloud a = sample("parallel_segments/a.csv");
-    req.settings.family = "shift";
+    req.settings.family = Family::Shift;
     req.settings.from = -1;
     req.settings.to = 1;
     req.settings.steps = 41;  // as in REFERENCES row 12
@@ -65,10 +63,10 @@ class ParallelSegmentsSweep : public ::testing::Test {
     result_ = nullptr;
     findings_ = nullptr;
   }
-  // True when the sweep ran and `id` is in it; callers skip or fail otherwise.
+  // True when the sweep ran and `id` is in it.
   static bool have(const std::string& id) { return measure(id) && result_ && series(*result_, id); }
   void SetUp() override {
-    if (!result_) GTEST_SKIP() << "none of the measures is registered yet";
+    ASSERT_TRUE(result_);
     ASSERT_TRUE(result_->message.empty()) << result_->message;
   }
   static SweepResult* result_;
@@ -78,7 +76,6 @@ SweepResult* ParallelSegmentsSweep::result_ = nullptr;
 std::vector<Finding>* ParallelSegmentsSweep::findings_ = nullptr;
 
 TEST_F(ParallelSegmentsSweep, WassersteinIsAbsThetaAtEveryGridPoint) {
-  if (!have("w1") || !have("w2")) GTEST_SKIP() << "w1 or w2 is not registered yet";
   for (const char* id : {"w1", "w2"}) {
     const SweepSeries* s = series(*result_, id);
     ASSERT_TRUE(s);
@@ -89,7 +86,7 @@ TEST_F(ParallelSegmentsSweep, WassersteinIsAbsThetaAtEveryGridPoint) {
 
 TEST_F(ParallelSegmentsSweep, TransportKernelAndSlicedMeasuresAreContinuous) {
   for (const char* id : {"w1", "w2", "sliced", "mmd", "energy", "sinkhorn"}) {
-    if (!have(id)) continue;
+    ASSERT_TRUE(have(id)) << id;
     const Finding* f = finding(*findings_, id);
     ASSERT_TRUE(f) << id;
     EXPECT_TRUE(f->continuous) << f->summary;
@@ -107,7 +104,8 @@ TEST_F(ParallelSegmentsSweep, LipschitzEstimatesRespectTheTheoreticalBounds) {
       {"w1", 1.0},       {"w2", 1.0},      {"hausdorff", 1.0}, {"frechet", 1.0},  {"sinkhorn", 1.0},
       {"sliced", M_SQRT1_2}, {"mmd", 4.0}, {"chamfer", 2.0}};
   int checked = 0;
-  if (have("energy")) {
+  ASSERT_TRUE(have("energy"));
+  {
     const SweepSeries* e = series(*result_, "energy");
     double worst = 0;
     for (std::size_t k = 1; k < result_->theta.size(); ++k)
@@ -118,14 +116,14 @@ TEST_F(ParallelSegmentsSweep, LipschitzEstimatesRespectTheTheoreticalBounds) {
     ++checked;
   }
   for (const auto& [id, bound] : bounds) {
-    if (!have(id)) continue;
+    ASSERT_TRUE(have(id)) << id;
     const Finding* f = finding(*findings_, id);
     ASSERT_TRUE(f);
     EXPECT_LE(f->lipschitz, bound * (1 + 1e-9)) << f->summary;
     EXPECT_GT(f->lipschitz, 0.0) << f->summary;
     ++checked;
   }
-  if (checked == 0) GTEST_SKIP() << "none of the bounded measures is registered yet";
+  EXPECT_EQ(checked, int(bounds.size()) + 1);
   if (measure("w1")) {
     EXPECT_NEAR(finding(*findings_, "w1")->lipschitz, 1.0, 1e-9);  // W1 = |θ| exactly
   }
@@ -138,7 +136,7 @@ TEST_F(ParallelSegmentsSweep, HistogramDivergencesJumpAtTheBinEdgesAndSaturate) 
       {"js", std::log(2.0)}, {"tv", 1.0}, {"kl_ab", INFINITY}, {"kl_ba", INFINITY}, {"hellinger", 1.0}};
   int checked = 0;
   for (const auto& [id, high] : top) {
-    if (!have(id)) continue;
+    ASSERT_TRUE(have(id)) << id;
     const Finding* f = finding(*findings_, id);
     ASSERT_TRUE(f);
     EXPECT_FALSE(f->continuous) << f->summary;
@@ -159,7 +157,7 @@ TEST_F(ParallelSegmentsSweep, HistogramDivergencesJumpAtTheBinEdgesAndSaturate) 
     EXPECT_TRUE(f->monotone) << f->summary;
     ++checked;
   }
-  if (checked == 0) GTEST_SKIP() << "no density measure is registered yet";
+  EXPECT_EQ(checked, int(top.size()));
   if (const Finding* js = finding(*findings_, "js")) {
     EXPECT_NE(js->summary.find("constant at 0.693 for θ ≤ -0.125 and for θ ≥ 0.125"), std::string::npos) << js->summary;
   }
@@ -168,13 +166,13 @@ TEST_F(ParallelSegmentsSweep, HistogramDivergencesJumpAtTheBinEdgesAndSaturate) 
 // Displacement interpolation is a constant-speed geodesic: W2(A_t, B) = (1 − t) W2(A, B)
 // [P] Santambrogio 2015 §5.4; Villani 2003 §5.1 (mem).
 TEST(SweepMeasuresTest, InterpolationIsAConstantSpeedW2Geodesic) {
-  if (!measure("w2")) GTEST_SKIP() << "w2 is not registered yet";
+  ASSERT_NE(measure("w2"), nullptr) << "w2 is not registered";
   ShapeSpec sa{"mixture", 40, {0.0, 0.0}, 1.0, 0.3, 0.0, 11};
   ShapeSpec sb{"ring", 35, {1.5, -0.5}, 1.2, 0.0, 0.05, 12};
   Cloud a = generate(sa, "A"), b = generate(sb, "B");
   for (Eigen::Index i = 0; i < a.size(); ++i) a.weights(i) = 1.0 + (i % 4);  // uneven masses
   SweepRequest req;
-  req.settings.family = "interpolate";
+  req.settings.family = Family::Interpolate;
   req.settings.from = 0;
   req.settings.to = 1;
   req.settings.steps = 11;
@@ -201,18 +199,18 @@ TEST(SweepMeasuresTest, AnalyticSlopesAgreeWithFiniteDifferences) {
   ShapeSpec sb{"arcs", 50, {0.8, 0.3}, 1.0, 0.4, 0.05, 22};
   const Cloud a = generate(sa, "A"), b = generate(sb, "B");
   int checked = 0;
-  for (const char* family : {"shift", "rotate"}) {
+  for (const Family family : {Family::Shift, Family::Rotate}) {
     SweepRequest req;
     req.settings.family = family;
     req.settings.direction = {0.6, 0.8};
-    req.settings.from = std::string(family) == "shift" ? -0.4 : -20;
-    req.settings.to = std::string(family) == "shift" ? 0.4 : 20;
+    req.settings.from = family == Family::Shift ? -0.4 : -20;
+    req.settings.to = family == Family::Shift ? 0.4 : 20;
     req.settings.steps = 5;
     req.refineJumps = false;
     req.params.assign("mmd.sigma=0.7");
     req.params.assign("sinkhorn.epsilon=0.1");
     const SweepResult r = runSweep(a, b, req);
-    if (r.series.empty()) GTEST_SKIP() << "no measure is registered yet: " << r.message;
+    ASSERT_FALSE(r.series.empty()) << r.message;
     for (const auto& s : r.series) {
       if (s.gradientMethod != "analytic") continue;
       const Measure* m = measure(s.id);
@@ -226,21 +224,21 @@ TEST(SweepMeasuresTest, AnalyticSlopesAgreeWithFiniteDifferences) {
         const double up = evaluateMeasure(*m, probe.at(r.theta[k] + h), b, er).value;
         const double down = evaluateMeasure(*m, probe.at(r.theta[k] - h), b, er).value;
         const double fd = (up - down) / (2 * h);
-        EXPECT_NEAR(s.slope[k], fd, 2e-4 * (1 + std::abs(fd))) << s.id << " " << family << " θ=" << r.theta[k];
+        EXPECT_NEAR(s.slope[k], fd, 2e-4 * (1 + std::abs(fd))) << s.id << " " << familyName(family) << " θ=" << r.theta[k];
         ++checked;
       }
     }
   }
-  if (checked == 0) GTEST_SKIP() << "no registered measure has an analytic gradient yet";
+  EXPECT_GT(checked, 0) << "no measure gave an analytic slope";
 }
 
 // A steep but continuous curve is never a jump: MMD with σ = 0.01 on the parallel segments
 // rises over a few σ, five times faster than the grid spacing, yet is continuous.
 TEST(SweepMeasuresTest, MmdWithSmallSigmaIsSteepButNotAJump) {
-  if (!measure("mmd")) GTEST_SKIP() << "mmd is not registered yet";
+  ASSERT_NE(measure("mmd"), nullptr) << "mmd is not registered";
   const Cloud a = sample("parallel_segments/a.csv");
   SweepRequest req;
-  req.settings.family = "shift";
+  req.settings.family = Family::Shift;
   req.settings.from = -0.5;
   req.settings.to = 0.5;
   req.settings.steps = 21;

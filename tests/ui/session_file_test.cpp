@@ -36,7 +36,7 @@ TEST(SessionFileTest, SavedSessionReopensWithSameCloudsSettingsAndView) {
   doc->setCloud(Which::B, b, "edit");
   doc->setParam("mmd.sigma", "0.37");
   SweepSettings sw = doc->session().sweep;
-  sw.family = "rotate";
+  sw.family = Family::Rotate;
   sw.center = std::array<double, 2>{0.25, -0.5};
   sw.from = -90;
   sw.to = 90;
@@ -62,7 +62,7 @@ TEST(SessionFileTest, SavedSessionReopensWithSameCloudsSettingsAndView) {
   EXPECT_EQ(r.a.name, saved.a.name);
   EXPECT_EQ(r.params.values(), saved.params.values());
   EXPECT_EQ(r.selected, saved.selected);
-  EXPECT_EQ(r.sweep.family, "rotate");
+  EXPECT_EQ(r.sweep.family, Family::Rotate);
   EXPECT_EQ(r.sweep.center, sw.center);
   EXPECT_EQ(r.sweep.from, -90);
   EXPECT_EQ(r.sweep.to, 90);
