@@ -19,7 +19,7 @@ struct WorkSlice {
   WorkSlice sub(double a, double b) const { return {control, from + (to - from) * a, from + (to - from) * b}; }
 };
 
-/// Calls work(block) once for every block in [0, blocks), on up to hardware_concurrency()
+/// Calls work(block) once for every block in [0, blocks), on up to threadBudget(control)
 /// threads (the calling thread is one of them), taking blocks in increasing order.
 /// Cancellation is checked between blocks from every thread; progress is reported only from
 /// the calling thread, so RunControl::onProgress never runs concurrently with itself.

@@ -3,11 +3,12 @@
 #include <algorithm>
 
 #include "base/busy_probe.h"
+#include "base/run_control.h"
 
 namespace barrow::kernel {
 
 RowWorkers::RowWorkers(int threads) {
-  if (threads <= 0) threads = int(std::max(1u, std::thread::hardware_concurrency()));
+  if (threads <= 0) threads = defaultThreadCount();
   for (int t = 1; t < threads; ++t) helpers_.emplace_back([this] { helperLoop(); });
 }
 

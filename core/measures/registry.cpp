@@ -13,7 +13,7 @@ const std::vector<std::string>& designMeasureIds() {
 }
 
 namespace {
-std::size_t rank(const std::string& id) {
+std::size_t designRank(const std::string& id) {
   const auto& o = designMeasureIds();
   return std::size_t(std::find(o.begin(), o.end(), id) - o.begin());
 }
@@ -27,7 +27,7 @@ MeasureRegistry::MeasureRegistry() {
   registerGeometricMeasures(*this);
   registerDensityMeasures(*this);
   std::stable_sort(view_.begin(), view_.end(),
-                   [](const Measure* x, const Measure* y) { return rank(x->id()) < rank(y->id()); });
+                   [](const Measure* x, const Measure* y) { return designRank(x->id()) < designRank(y->id()); });
 }
 
 const MeasureRegistry& MeasureRegistry::instance() {

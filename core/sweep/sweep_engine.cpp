@@ -327,6 +327,7 @@ SweepResult runSweep(const Cloud& a, const Cloud& b, const SweepRequest& req, co
   jobs.reserve(measures.size());
   RunControl probeControl;
   if (control) probeControl.cancel = control->cancel;
+  probeControl.threads = threads;  // the reference evaluations stay within the budget too
   for (const Measure* m : measures) jobs.emplace_back(*m, req.params, a0, b, velocity, &probeControl);
 
   std::vector<std::unique_ptr<Row>> rows;

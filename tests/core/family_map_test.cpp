@@ -6,6 +6,7 @@
 #include "families/family_map.h"
 #include "measures/evaluate.h"
 #include "measures/registry.h"
+#include "sweep/sweep_settings.h"
 
 namespace barrow {
 namespace {
@@ -102,7 +103,6 @@ TEST(FamilyMapTest, BadInputIsAnErrorNotACrash) {
   auto s = settings(Family::Shift);
   s.direction = {0.0, 0.0};
   EXPECT_TRUE(FamilyMap(cloudA(), cloudB(), s).error());
-  EXPECT_TRUE(FamilyMap(cloudA(), cloudB(), settings("spin")).error());
   EXPECT_TRUE(FamilyMap(Cloud("E", Eigen::MatrixX2d(0, 2)), cloudB(), settings(Family::Rotate)).error());
   Cloud nan = cloudB();
   nan.points(2, 0) = NAN;

@@ -1,5 +1,5 @@
 // Sweeps of the real measures (from the registry) against published and derived values.
-// Each test skips, saying why, while a measure it needs is not registered yet.
+// A measure missing from the registry fails these tests (they never skip for it).
 #include <gtest/gtest.h>
 
 #include <cmath>
