@@ -10,7 +10,7 @@ set(BARROW_CORE_LAYERS
   "families"                    # θ ↦ A_θ
   "sweep"                       # sweeps, continuity findings
   "io"                          # every file format
-  "scenario"                    # generators, the demo
+  "scenario report"             # generators and the demo · the self-contained HTML report
 )
 
 set(rank 0)

@@ -5,7 +5,7 @@
 #include <QtConcurrent/QtConcurrentRun>
 
 #include "measures/registry.h"
-#include "measures/run_control.h"
+#include "base/run_control.h"
 #include "report/report_build.h"
 #include "report/report_html.h"
 #include "sweep/continuity.h"

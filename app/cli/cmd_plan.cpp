@@ -18,6 +18,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "io/plan_csv.h"
+#include "transport/exact_cost.h"
 #include "measures/evaluate.h"
 #include "measures/registry.h"
 
@@ -42,7 +43,8 @@ int runPlan(const std::vector<std::string>& argv) {
   if (r.status == Status::InvalidInput) throw InputError{r.message};
   if (r.status != Status::Ok) throw InternalError{costName + " failed: " + r.message};
 
-  const std::string csv = formatPlanCsv(a, b, r.plan, costName == "w1" ? 1.0 : 2.0);
+  const GroundCost cost(costName == "w1" ? 1.0 : 2.0);
+  const std::string csv = formatPlanCsv(a, b, r.plan, cost.p());
   if (out == "-") std::fwrite(csv.data(), 1, csv.size(), stdout);
   else if (auto e = atomicWriteFile(out, csv)) throw InputError{*e};
   if (potentials) {

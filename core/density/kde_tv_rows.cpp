@@ -7,7 +7,7 @@
 #include <vector>
 
 #include "density/gauss_kronrod.h"
-#include "transport/kernel_pass_threads.h"
+#include "base/row_workers.h"
 
 namespace barrow {
 

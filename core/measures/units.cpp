@@ -1,8 +1,8 @@
 #include "measures/units.h"
 
 #include "measures/evaluate.h"
-#include "measures/number_text.h"
-#include "measures/params.h"
+#include "base/number_text.h"
+#include "base/params.h"
 
 #include <cmath>
 

@@ -6,7 +6,7 @@
 #include "io/csv_io.h"
 #include "measures/evaluate.h"
 #include "measures/measure_json.h"
-#include "measures/number_text.h"
+#include "base/number_text.h"
 #include "measures/registry.h"
 #include "report/sha256.h"
 
@@ -59,9 +59,9 @@ std::vector<std::string> reproduceCommands(const ReportSources& src, const Sweep
   for (const auto& [k, v] : src.params.values()) sets += " --set " + shellWord(k + "=" + v);
   const std::string ids = joinedIds(r);
 
-  std::string sweep = "barrow-cli sweep --a " + a + " --b " + b + " --family " + shellWord(s.family);
-  if (s.family == "shift") sweep += " --direction " + shellWord(shortestText(s.direction[0]) + "," + shortestText(s.direction[1]));
-  if (s.center && (s.family == "rotate" || s.family == "scale"))
+  std::string sweep = "barrow-cli sweep --a " + a + " --b " + b + " --family " + shellWord(familyName(s.family));
+  if (s.family == Family::Shift) sweep += " --direction " + shellWord(shortestText(s.direction[0]) + "," + shortestText(s.direction[1]));
+  if (s.center && (s.family == Family::Rotate || s.family == Family::Scale))
     sweep += " --center " + shellWord(shortestText((*s.center)[0]) + "," + shortestText((*s.center)[1]));
   sweep += " --from " + shellWord(shortestText(s.from)) + " --to " + shellWord(shortestText(s.to)) +
            " --steps " + std::to_string(s.steps);

@@ -9,8 +9,8 @@
 #include <vector>
 
 #include "cloud/cloud.h"
-#include "measures/params.h"
-#include "measures/run_control.h"
+#include "base/params.h"
+#include "base/run_control.h"
 #include "report/report_input.h"
 #include "sweep/findings.h"
 #include "sweep/sweep_result.h"

@@ -2,9 +2,9 @@
 
 #include <cmath>
 
-#include "measures/number_text.h"
-#include "sweep/findings_json.h"
-#include "sweep/sweep_csv.h"
+#include "base/number_text.h"
+#include "io/findings_json.h"
+#include "io/sweep_csv.h"
 
 namespace barrow {
 
@@ -66,10 +66,10 @@ nlohmann::ordered_json reportData(const ReportInput& in) {
   plan["entries"] = planJson(in.referencePlan);
   if (!in.referencePlanNote.empty()) plan["note"] = in.referencePlanNote;
   clouds["plan"] = std::move(plan);
-  if (s.family == "interpolate") clouds["interpolation_plan"] = planJson(in.familyPlan);
+  if (s.family == Family::Interpolate) clouds["interpolation_plan"] = planJson(in.familyPlan);
 
   ojson sweep;
-  sweep["family"] = s.family;
+  sweep["family"] = familyName(s.family);
   sweep["direction"] = {s.direction[0], s.direction[1]};
   sweep["center"] = s.center ? ojson({(*s.center)[0], (*s.center)[1]}) : ojson();
   sweep["pivot"] = {number(in.pivot.x()), number(in.pivot.y())};

@@ -6,7 +6,7 @@
 
 #include "io/atomic_write.h"
 #include "measures/details_text.h"
-#include "measures/number_text.h"
+#include "base/number_text.h"
 #include "measures/registry.h"
 #include "report/html_text.h"
 #include "report/report_data.h"
@@ -49,14 +49,14 @@ std::string swatch(const std::string& id) {
 
 // What the family does to A, in words (θ's meaning included).
 std::string familyWords(const SweepSettings& s, const Eigen::Vector2d& pivot) {
-  if (s.family == "shift")
+  if (s.family == Family::Shift)
     return "shifting A along the direction " + point(s.direction[0], s.direction[1]) + " by the distance θ";
-  if (s.family == "rotate") return "rotating A about " + point(pivot.x(), pivot.y()) + " by θ degrees";
-  if (s.family == "scale") return "scaling A about " + point(pivot.x(), pivot.y()) + " by the factor θ";
-  if (s.family == "interpolate")
+  if (s.family == Family::Rotate) return "rotating A about " + point(pivot.x(), pivot.y()) + " by θ degrees";
+  if (s.family == Family::Scale) return "scaling A about " + point(pivot.x(), pivot.y()) + " by the factor θ";
+  if (s.family == Family::Interpolate)
     return "moving A towards B along the exact W2 plan (displacement interpolation, θ = t)";
-  if (s.family == "mix") return "mixing A with B, (1−θ)·A + θ·B";
-  return "the family '" + s.family + "'";
+  if (s.family == Family::Mix) return "mixing A with B, (1−θ)·A + θ·B";
+  return "the family '" + familyName(s.family) + "'";
 }
 
 std::string cloudLabel(const ReportCloud& c, const char* role) {

@@ -8,7 +8,7 @@
 #include <vector>
 
 #include "cloud/cloud.h"
-#include "measures/params.h"
+#include "base/params.h"
 #include "measures/result.h"
 #include "sweep/findings.h"
 #include "sweep/sweep_result.h"

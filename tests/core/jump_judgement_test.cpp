@@ -7,7 +7,7 @@
 #include <random>
 
 #include "sweep/continuity.h"
-#include "sweep/findings_json.h"
+#include "io/findings_json.h"
 #include "sweep/step_rule.h"
 #include "support/test_support.h"
 #include "sweep/sweep_engine.h"
@@ -66,7 +66,7 @@ Cloud origin() { return Cloud("A", Eigen::MatrixX2d::Zero(1, 2)); }
 
 SweepResult sweepWith(const Measure& m, int budget, bool refine = true) {
   SweepRequest req;
-  req.settings.family = "shift";
+  req.settings.family = Family::Shift;
   req.settings.from = -1;
   req.settings.to = 1;
   req.settings.steps = 41;
@@ -155,7 +155,7 @@ TEST(JumpJudgementTest, BudgetIsSharedBetweenMeasures) {
   } stairs;
   const PlantedJumpMeasure single(3, 0.4567, 1.0, 0.5);
   SweepRequest req;
-  req.settings.family = "shift";
+  req.settings.family = Family::Shift;
   req.settings.from = -1;
   req.settings.to = 1;
   req.settings.steps = 41;
@@ -214,11 +214,11 @@ TEST(JumpJudgementTest, LipschitzMeasuresNeverJumpOnRandomClouds) {
   for (unsigned seed : {5u, 6u}) {
     const Cloud a = test::gaussianCloud(30, seed, 0.0, 1.0, true);
     const Cloud b = test::gaussianCloud(25, seed + 50, 0.5, 0.5, true);
-    for (const char* family : {"shift", "rotate"})
+    for (Family family : {Family::Shift, Family::Rotate})
       for (int budget : {-1, 3, 0}) {  // -1: no refinement; 0: the default budget
         SweepRequest req;
         req.settings.family = family;
-        req.settings.from = family == std::string("shift") ? -1.0 : -180.0;
+        req.settings.from = family == Family::Shift ? -1.0 : -180.0;
         req.settings.to = -req.settings.from;
         req.settings.steps = 61;
         req.settings.measures = {"w1", "w2", "hausdorff", "chamfer", "sliced", "mmd", "energy"};
@@ -227,7 +227,7 @@ TEST(JumpJudgementTest, LipschitzMeasuresNeverJumpOnRandomClouds) {
         const SweepResult r = runSweep(a, b, req);
         ASSERT_TRUE(r.message.empty()) << r.message;
         for (const Finding& f : findContinuity(r))
-          EXPECT_TRUE(f.jumps.empty()) << family << " budget " << budget << " seed " << seed << ": " << f.summary;
+          EXPECT_TRUE(f.jumps.empty()) << familyName(family) << " budget " << budget << " seed " << seed << ": " << f.summary;
       }
   }
 }

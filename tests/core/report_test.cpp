@@ -13,8 +13,8 @@
 #include "report/report_html.h"
 #include "support/test_support.h"
 #include "sweep/continuity.h"
-#include "sweep/findings_json.h"
-#include "sweep/sweep_csv.h"
+#include "io/findings_json.h"
+#include "io/sweep_csv.h"
 #include "sweep/sweep_engine.h"
 
 namespace barrow {
@@ -29,7 +29,7 @@ ReportInput smallReport(const std::string& nameA, const std::string& title) {
   a.name = nameA;
   b.name = "B & co \u2028 line";
   SweepRequest req;
-  req.settings.family = "shift";
+  req.settings.family = Family::Shift;
   req.settings.from = -1;
   req.settings.to = 1;
   req.settings.steps = 9;
@@ -132,7 +132,7 @@ TEST(ReportBuildTest, CommandsNameInputsMeasuresAndSettings) {
   src.fileB = "b.csv";
   src.params.set("mmd.sigma", "0.5");
   SweepResult r;
-  r.settings.family = "rotate";
+  r.settings.family = Family::Rotate;
   r.settings.center = std::array<double, 2>{1, 2};
   r.settings.from = -90;
   r.settings.to = 90;

@@ -12,6 +12,7 @@
 #include "io/cloud_file.h"
 #include "measures/registry.h"
 #include "support/test_support.h"
+#include "families/family_spec.h"
 #include "sweep/sweep_engine.h"
 
 namespace barrow {
@@ -31,12 +32,12 @@ double allowedGap(const std::string& id, double cold, double bound) {
 }
 
 struct Case {
-  std::string family;
+  Family family;
   double from, to;
 };
 
-const Case kCases[] = {{"shift", -1.0, 1.0}, {"rotate", -90.0, 90.0}, {"scale", 0.5, 1.5},
-                       {"interpolate", 0.0, 1.0}, {"mix", 0.0, 1.0}};
+const Case kCases[] = {{Family::Shift, -1.0, 1.0}, {Family::Rotate, -90.0, 90.0}, {Family::Scale, 0.5, 1.5},
+                       {Family::Interpolate, 0.0, 1.0}, {Family::Mix, 0.0, 1.0}};
 
 SweepResult sweep(const Cloud& a, const Cloud& b, const Case& c, bool warm, int threads) {
   SweepRequest req;
@@ -71,11 +72,11 @@ void expectSame(const SweepResult& cold, const SweepResult& other, const Cloud& 
 void checkPair(const Cloud& a, const Cloud& b, const std::string& name) {
   for (const Case& c : kCases) {
     const SweepResult cold = sweep(a, b, c, false, 1);
-    ASSERT_TRUE(cold.message.empty()) << name << " " << c.family << ": " << cold.message;
+    ASSERT_TRUE(cold.message.empty()) << name << " " << familyName(c.family) << ": " << cold.message;
     EXPECT_EQ(cold.series.size(), MeasureRegistry::instance().all().size());
     for (int threads : {1, 2, 4})
-      expectSame(cold, sweep(a, b, c, true, threads), a, b, name + " " + c.family + " warm, threads " + std::to_string(threads));
-    expectSame(cold, sweep(a, b, c, false, 2), a, b, name + " " + c.family + " cold, threads 2");
+      expectSame(cold, sweep(a, b, c, true, threads), a, b, name + " " + familyName(c.family) + " warm, threads " + std::to_string(threads));
+    expectSame(cold, sweep(a, b, c, false, 2), a, b, name + " " + familyName(c.family) + " cold, threads 2");
   }
 }
 

@@ -8,6 +8,7 @@
 #include <sstream>
 
 #include "families/family_map.h"
+#include "families/family_spec.h"
 #include "io/cloud_file.h"
 
 namespace {
@@ -34,8 +35,13 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "%s\n", (!a ? a.error : b.error).text().c_str());
     return 2;
   }
-  SweepSettings s;
-  s.family = argv[3];
+  FamilySettings s;
+  const FamilySpec* spec = findFamily(argv[3]);
+  if (!spec) {
+    std::fprintf(stderr, "unknown family '%s' (expected %s)\n", argv[3], familyChoices().c_str());
+    return 2;
+  }
+  s.family = spec->family;
   if (std::string(argv[4]) != "-") s.direction = pairOf(argv[4]);
   if (std::string(argv[5]) != "-") s.center = pairOf(argv[5]);
   const FamilyMap map(*a.value, *b.value, s);

@@ -3,6 +3,8 @@
 // as CSV/.npy that read back to the same points.
 #include <gtest/gtest.h>
 
+#include <sstream>
+
 #include <QImage>
 
 #include "field_panel.h"
@@ -64,11 +66,24 @@ TEST(ExportTest, SweepCsvFollowsTheCommandLineHeader) {
   ASSERT_TRUE(waitIdle(*w));
   const std::string csv = w->sweep()->toCsv();
   ASSERT_FALSE(csv.empty());
-  // DEVELOPERS.md, Command-line contract: theta,<id>,...,d_<id>,...
-  EXPECT_EQ(csv.substr(0, csv.find('\n')), "theta,js,tv,d_js,d_tv");
-  std::size_t rows = 0;
-  for (char c : csv) rows += c == '\n';
-  EXPECT_GE(rows, 1u + 9u);  // header + at least the grid (refinement may add θ)
+  // DEVELOPERS.md, Command-line contract: "#" settings lines, then theta,<id>,...,d_<id>,...
+  std::istringstream in(csv);
+  std::string line;
+  std::size_t settings = 0, rows = 0;
+  std::string header;
+  while (std::getline(in, line)) {
+    if (!line.empty() && line[0] == '#') {
+      EXPECT_EQ(rows, 0u) << "a settings line after the table: " << line;
+      ++settings;
+    } else if (header.empty()) {
+      header = line;
+    } else {
+      ++rows;
+    }
+  }
+  EXPECT_GT(settings, 0u);
+  EXPECT_EQ(header, "theta,js,tv,d_js,d_tv");
+  EXPECT_GE(rows, 9u);  // at least the grid (refinement may add θ)
 }
 
 }  // namespace
