@@ -8,6 +8,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "cli/measures_help.h"
+#include "cli/resampling_cli.h"
 
 namespace {
 
@@ -23,6 +24,9 @@ usage:
   barrow-cli findings --sweep sweep.csv  (or the sweep options)  [--json]
   barrow-cli demo     (writes a demo scenario and runs a sweep on it)  [--out DIR] [--json]
   barrow-cli report   (--session S.json | --a A --b B [sweep options]) --out report.html [--title T]
+  barrow-cli spread   --a A --b B [--measures ...] [--resamples 200] [--level 0.95] [--seed S] [--json]
+  barrow-cli permute  --a A --b B [--measures ...] [--permutations 999] [--seed S] [--json]
+  barrow-cli sizes    --a A --b B [--measures ...] [--sizes n1,n2,...] [--repeats 20] [--seed S] [--json]
   barrow-cli --help | --version | COMMAND --help
 
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
@@ -53,7 +57,7 @@ int main(int argc, char** argv) {
   const std::vector<std::string> rest(argv + 2, argv + argc);
   for (const auto& a : rest)
     if (a == "--help" || a == "-h") {
-      const std::string own = commandHelp(cmd);
+      const std::string own = resamplingHelp(cmd).empty() ? commandHelp(cmd) : resamplingHelp(cmd);
       std::fputs(own.empty() ? kUsage : own.c_str(), stdout);
       if (cmd == "measure" || cmd == "sweep") std::fputs(("\n" + measuresHelp()).c_str(), stdout);
       return kExitOk;
@@ -65,6 +69,9 @@ int main(int argc, char** argv) {
     if (cmd == "findings") return runFindings(rest);
     if (cmd == "demo") return runDemo(rest);
     if (cmd == "report") return runReport(rest);
+    if (cmd == "spread") return runSpread(rest);
+    if (cmd == "permute") return runPermute(rest);
+    if (cmd == "sizes") return runSizes(rest);
     std::fprintf(stderr, "barrow-cli: unknown command '%s' (see --help)\n", cmd.c_str());
     return kExitBadInput;
   } catch (const UsageError& e) {
