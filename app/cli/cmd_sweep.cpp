@@ -1,6 +1,7 @@
 // barrow-cli sweep --a A.csv --b B.csv --family shift|rotate|scale|interpolate|mix
 //   [--direction dx,dy] [--center x,y] [--from F --to T --steps N] [--reference R]
 //   [--measures ids] [--set k=v ...] [--threads N] [--no-refine] [--no-warm-start] --out sweep.csv
+//   [--resamples B [--level L] [--seed S]]   (adds lo_<id>,hi_<id> resampling bands)
 #include <unistd.h>
 
 #include <cstdio>
@@ -9,9 +10,11 @@
 #include "base/number_text.h"
 #include "cli/cli_common.h"
 #include "cli/commands.h"
+#include "cli/resampling_cli.h"
 #include "families/family_map.h"
 #include "io/sweep_csv.h"
 #include "sweep/sweep_engine.h"
+#include "uncertainty/sweep_bands.h"
 
 namespace barrow::cli {
 
@@ -115,15 +118,34 @@ void printSweepNotes(const SweepResult& r, std::FILE* to) {
 
 int runSweep(const std::vector<std::string>& argv) {
   std::vector<std::string> valued = sweepOptionNames();
-  valued.push_back("out");
+  valued.insert(valued.end(), {"out", "resamples", "level", "seed"});
   const CliArgs args("sweep", argv, valued, {"no-refine", "no-warm-start"});
   const std::string out = args.required("out");
+  SweepBandRequest bands;
+  bands.resamples = args.integer("resamples", 0);
+  bands.level = args.number("level", bands.level);
+  bands.seed = seedOption(args);
+  bands.threads = args.integer("threads", 0);
+  bands.warmStart = !args.flag("no-warm-start");
+  const bool wantBands = args.has("resamples");
+  if (wantBands)
+    if (auto e = checkSweepBandRequest(bands)) throw UsageError{"--resamples/--level: " + *e};
   checkWritable(out, "out");
-  const SweepResult r = sweepFromArgs(args);
+  SweepResult r = sweepFromArgs(args);
+  if (wantBands) {
+    const Cloud a = loadCloud(args.required("a"));
+    const Cloud b = loadCloud(args.required("b"));
+    StderrProgress progress("resampling the sweep");
+    if (auto e = addSweepBands(a, b, r, bands, progress.control())) throw InputError{*e};
+    progress.finish();
+  }
   if (auto e = writeSweepCsv(out, r)) throw InputError{*e};
   std::printf("wrote %s: %zu θ values (%d added near suspected jumps) × %zu measures in %.2f s on %d threads\n",
               out.c_str(), r.theta.size(), r.refinedPoints, r.series.size(), r.seconds, r.threads);
   printSweepFrame(r, stdout);
+  if (r.bandResamples > 0)
+    std::printf("bands: %d resamples per θ, %s percentile interval, seed %llu (lo_<id>, hi_<id> columns)\n",
+                r.bandResamples, formatNumber(r.bandLevel).c_str(), (unsigned long long)r.bandSeed);
   printSweepNotes(r, stdout);
   return kExitOk;
 }

@@ -21,6 +21,7 @@ usage:
                       [--direction dx,dy] [--from F --to T --steps N] [--measures ...] --out sweep.csv
                       [--center x,y] [--reference R] [--set key=value ...] [--threads N]
                       [--refine-budget N] [--resolution H] [--no-refine] [--no-warm-start]
+                      [--resamples B [--level L] [--seed S]]
   barrow-cli findings --sweep sweep.csv  (or the sweep options)  [--json]
   barrow-cli demo     (writes a demo scenario and runs a sweep on it)  [--out DIR] [--json]
   barrow-cli report   (--session S.json | --a A --b B [sweep options]) --out report.html [--title T]

@@ -83,10 +83,20 @@ void readSetting(SweepResult& r, std::map<std::string, std::string>& perMeasure,
   else if (key == "refined_points") r.refinedPoints = int(settingNumber(key, v, line));
   else if (key == "refine_budget_hit") r.refineBudgetHit = v == "true";
   else if (key == "refine_budget") r.refineBudget = int(settingNumber(key, v, line));
+  else if (key == "resamples") r.bandResamples = int(settingNumber(key, v, line));
+  else if (key == "band_level") r.bandLevel = settingNumber(key, v, line);
+  else if (key == "band_seed") r.bandSeed = std::uint64_t(settingNumber(key, v, line));
   else if (key.rfind("frozen.", 0) == 0 || key.rfind("rules.", 0) == 0 || key.rfind("gradient.", 0) == 0 ||
            key.rfind("accuracy.", 0) == 0 ||
            key.rfind("unit.", 0) == 0)
     perMeasure[key] = v;
+}
+
+bool hasBands(const SweepResult& r) {
+  if (r.bandResamples <= 0) return false;
+  for (const auto& ser : r.series)
+    if (ser.low.size() != r.theta.size()) return false;
+  return true;
 }
 
 }  // namespace
@@ -96,6 +106,12 @@ SweepTable sweepTable(const SweepResult& r) {
   t.columns.push_back("theta");
   for (const auto& ser : r.series) t.columns.push_back(ser.id);
   for (const auto& ser : r.series) t.columns.push_back("d_" + ser.id);
+  const bool bands = hasBands(r);  // resampling bands: lo_<id>,hi_<id> for each measure
+  if (bands)
+    for (const auto& ser : r.series) {
+      t.columns.push_back("lo_" + ser.id);
+      t.columns.push_back("hi_" + ser.id);
+    }
   t.rows.reserve(r.theta.size());
   for (std::size_t k = 0; k < r.theta.size(); ++k) {
     std::vector<std::string> row;
@@ -104,6 +120,11 @@ SweepTable sweepTable(const SweepResult& r) {
     for (const auto& ser : r.series) row.push_back(k < ser.value.size() ? cell(ser.value[k]) : "");
     for (const auto& ser : r.series)
       row.push_back(k < ser.slope.size() && k < ser.value.size() && !std::isnan(ser.value[k]) ? cell(ser.slope[k]) : "");
+    if (bands)
+      for (const auto& ser : r.series) {
+        row.push_back(k < ser.low.size() ? cell(ser.low[k]) : "");
+        row.push_back(k < ser.high.size() ? cell(ser.high[k]) : "");
+      }
     t.rows.push_back(std::move(row));
   }
   return t;
@@ -131,6 +152,10 @@ std::string formatSweepCsv(const SweepResult& r) {
   o << "# refine_tolerance=" << cell(r.refineTolerance) << "\n# refined_points=" << r.refinedPoints << "\n";
   o << "# refine_budget=" << r.refineBudget << "\n";
   o << "# refine_budget_hit=" << (r.refineBudgetHit ? "true" : "false") << "\n";
+  const bool bands = hasBands(r);
+  if (bands)
+    o << "# resamples=" << r.bandResamples << "\n# band_level=" << cell(r.bandLevel) << "\n# band_seed=" << r.bandSeed
+      << "\n# bands: lo_<id>, hi_<id> = pointwise percentile interval of D over the resamples at each θ\n";
   for (const auto& ser : r.series) {
     std::vector<std::string> kv;
     for (const auto& [k, v] : ser.frozen.values()) kv.push_back(k + "=" + v);
@@ -159,6 +184,7 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
   std::string raw;
   int line = 0;
   bool header = false;
+  bool bands = false;
   try {
     while (std::getline(in, raw)) {
       ++line;
@@ -174,9 +200,13 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
       if (!header) {
         if (fields.empty() || trimmed(fields[0]) != "theta")
           throw ParseError{line, "", "the header must start with 'theta'"};
-        if (fields.size() < 3 || fields.size() % 2 == 0)
-          throw ParseError{line, "", "the header must be theta, the measure ids, then d_<id> for each"};
-        const std::size_t n = (fields.size() - 1) / 2;
+        // theta, n ids, n d_<id>, and optionally lo_<id>,hi_<id> for each (resampling bands).
+        std::size_t n = 0;
+        while (1 + n < fields.size() && trimmed(fields[1 + n]).rfind("d_", 0) != 0) ++n;
+        bands = fields.size() == 1 + 4 * n;
+        if (n == 0 || (fields.size() != 1 + 2 * n && !bands))
+          throw ParseError{line, "", "the header must be theta, the measure ids, then d_<id> for each "
+                                     "(and lo_<id>,hi_<id> for each when the sweep has bands)"};
         for (std::size_t j = 0; j < n; ++j) {
           SweepSeries s;
           s.id = trimmed(fields[1 + j]);
@@ -184,14 +214,22 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
           if (trimmed(fields[1 + n + j]) != "d_" + s.id)
             throw ParseError{line, "column " + std::to_string(n + j + 2),
                              "expected 'd_" + s.id + "', got '" + trimmed(fields[1 + n + j]) + "'"};
+          if (bands)
+            for (const char* side : {"lo_", "hi_"}) {
+              const std::size_t col = 1 + 2 * n + 2 * j + (side[0] == 'h');
+              if (trimmed(fields[col]) != side + s.id)
+                throw ParseError{line, "column " + std::to_string(col + 1),
+                                 "expected '" + std::string(side) + s.id + "', got '" + trimmed(fields[col]) + "'"};
+            }
           r.series.push_back(std::move(s));
         }
         header = true;
         continue;
       }
-      if (fields.size() != 1 + 2 * r.series.size())
+      const std::size_t width = 1 + (bands ? 4 : 2) * r.series.size();
+      if (fields.size() != width)
         throw ParseError{line, "", "found " + std::to_string(fields.size()) + " fields; expected " +
-                                       std::to_string(1 + 2 * r.series.size())};
+                                       std::to_string(width)};
       const auto theta = parseNumber(fields[0]);
       if (!theta || !std::isfinite(*theta)) throw ParseError{line, "theta", "'" + fields[0] + "' is not a finite number"};
       if (!r.theta.empty() && !(*theta > r.theta.back()))
@@ -210,6 +248,10 @@ Loaded<SweepResult> parseSweepCsv(const std::string& text, const std::string& fi
         s.value.push_back(v);
         s.status.push_back(std::isnan(v) ? Status::InvalidInput : std::isinf(v) ? Status::Infinite : Status::Ok);
         s.slope.push_back(read(fields[1 + r.series.size() + j], "d_" + s.id));
+        if (bands) {
+          s.low.push_back(read(fields[1 + 2 * r.series.size() + 2 * j], "lo_" + s.id));
+          s.high.push_back(read(fields[2 + 2 * r.series.size() + 2 * j], "hi_" + s.id));
+        }
         s.seconds.push_back(0.0);
         s.oneSided.push_back(false);
       }

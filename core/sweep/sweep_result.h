@@ -2,6 +2,7 @@
 // Shared contract between the sweep engine, the findings, the CLI and the GUI.
 #pragma once
 
+#include <cstdint>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -26,6 +27,8 @@ struct SweepSeries {
   nlohmann::json details = nlohmann::json::object();  // estimator settings etc. at the reference
   std::string message;                // first failure's reason; empty when every θ succeeded
   double accuracy = 0.0;              // absolute accuracy of the values (largest the solver stated)
+  // Resampling band per θ (core/uncertainty/sweep_bands.h); empty when the sweep ran without.
+  std::vector<double> low, high;
 };
 
 struct SweepResult {
@@ -43,6 +46,10 @@ struct SweepResult {
   int refineBudget = 0;               // θ values refinement was allowed to insert
   int threads = 0;                    // worker threads used (θ is split into that many chunks)
   bool warmStart = true;              // warm starts between neighbouring θ within a chunk
+  // Resampling bands (0 resamples = none): B, level and seed, written to the CSV.
+  int bandResamples = 0;
+  double bandLevel = 0.95;
+  std::uint64_t bandSeed = 0;
 };
 
 }  // namespace barrow
