@@ -9,6 +9,8 @@
 #include "io/sweep_csv.h"
 #include "sweep/continuity.h"
 #include "io/findings_json.h"
+#include "io/sweep_csv.h"
+#include "uncertainty/band_notes.h"
 
 namespace barrow::cli {
 
@@ -32,7 +34,11 @@ int runFindings(const std::vector<std::string>& argv) {
     if (args.has("out"))
       if (auto e = writeSweepCsv(*args.value("out"), r)) throw InputError{*e};
   }
-  const auto findings = findContinuity(r);
+  auto findings = findContinuity(r);
+  // A sweep with resampling bands: each jump and flat stretch is read against them.
+  for (std::size_t k = 0; k < findings.size() && k < r.series.size(); ++k)
+    for (const auto& note : readAgainstBands(findings[k], r.theta, r.series[k]).notes)
+      findings[k].summary += "; " + note;
   if (args.flag("json")) {
     std::cout << formatFindingsJson(findings);
   } else {
