@@ -33,6 +33,7 @@
 #include "session_files.h"
 #include "sweep_panel.h"
 #include "sweep_plots.h"
+#include "uncertainty_pane.h"
 
 namespace barrow::ui {
 
@@ -104,6 +105,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   connect(sweep_, &SweepPanel::thetaChanged, this, &MainWindow::setTheta);
   connect(sweep_, &SweepPanel::runningChanged, this, &MainWindow::checkIdle);
   connect(sweep_, &SweepPanel::staleChanged, findings_, &FindingsPanel::setStale);
+  connect(uncertainty_, &UncertaintyPane::runningChanged, this, &MainWindow::checkIdle);
   connect(sweep_, &SweepPanel::outcomeReady, this, [this] {
     if (!sweep_->error().empty())
       findings_->clear(tr("The sweep failed: %1").arg(QString::fromStdString(sweep_->error())));
@@ -136,6 +138,7 @@ void MainWindow::buildDocks() {
   measures_ = new MeasuresPanel(doc_, MeasureRegistry::instance().all(), this);
   sweep_ = new SweepPanel(doc_, this);
   findings_ = new FindingsPanel(this);
+  uncertainty_ = new UncertaintyPane(doc_, measures_, this);
   auto dock = [this](QWidget* w, const QString& title, const char* name, Qt::DockWidgetArea area) {
     auto* d = new QDockWidget(title, this);
     d->setObjectName(name);
@@ -151,6 +154,8 @@ void MainWindow::buildDocks() {
   auto* f = dock(findings_, tr("Findings"), "findingsDock", Qt::RightDockWidgetArea);
   dock(sweep_, tr("Sweep"), "sweepDock", Qt::BottomDockWidgetArea);
   splitDockWidget(m, f, Qt::Vertical);
+  tabifyDockWidget(f, dock(uncertainty_, tr("Resampling"), "resamplingDock", Qt::RightDockWidgetArea));
+  f->raise();
 }
 
 void MainWindow::applyDefaultLayout() {
@@ -267,6 +272,17 @@ void MainWindow::buildMenus() {
   add(sweep, tr("Release the θ &cursor"), QKeySequence("Ctrl+0"), tr("Show A as drawn again"),
       [this] { setTheta(std::nullopt); }, this);
 
+  QMenu* resampling = menuBar()->addMenu(tr("&Resampling"));
+  add(resampling, tr("&Intervals and p-values"), QKeySequence("Ctrl+Shift+R"),
+      tr("Resample the clouds: an interval and a same-distribution p-value per measure, and value versus n"),
+      [this] {
+        if (auto* d = findChild<QDockWidget*>("resamplingDock")) d->show(), d->raise();
+        uncertainty_->run();
+      },
+      this);
+  add(resampling, tr("&Cancel resampling"), {}, tr("Stop the running resampling"), [this] { uncertainty_->cancel(); },
+      this);
+
   QMenu* help = menuBar()->addMenu(tr("&Help"));
   add(help, tr("&Getting started"), QKeySequence::HelpContents, tr("The short guide shown on first run"),
       [this] { showGettingStarted(); }, this);
@@ -310,6 +326,7 @@ void MainWindow::setSession(const Session& s, const QString& path) {
 void MainWindow::focusMeasure(const std::string& id) {
   sweep_->plots()->highlight(id);
   findings_->selectMeasure(id);
+  uncertainty_->focusMeasure(id);
   if (!id.empty()) measures_->focusMeasure(id);
 }
 
@@ -443,7 +460,9 @@ void MainWindow::onLiveUpdate(const LiveUpdate& u) {
 
 quint64 MainWindow::liveRequest() const { return live_->latest(); }
 
-bool MainWindow::busy() const { return liveTimer_.isActive() || live_->busy() || sweep_->running(); }
+bool MainWindow::busy() const {
+  return liveTimer_.isActive() || live_->busy() || sweep_->running() || uncertainty_->running();
+}
 
 void MainWindow::whenIdle(std::function<void()> done) {
   idleWaiters_.push_back(std::move(done));

@@ -25,6 +25,7 @@ class MeasuresPanel;
 class ReportExport;
 class SessionFiles;
 class SweepPanel;
+class UncertaintyPane;
 struct LiveUpdate;
 
 class MainWindow : public QMainWindow {
@@ -76,6 +77,7 @@ class MainWindow : public QMainWindow {
   /// What "Export plan" writes: the plan CSV of barrow-cli plan (empty without a plan).
   std::string planCsv() const;
   FindingsPanel* findings() const { return findings_; }
+  UncertaintyPane* uncertainty() const { return uncertainty_; }
   SessionFiles* files() const { return files_; }
   const QString& lastError() const { return lastError_; }
   void showGettingStarted();
@@ -134,6 +136,7 @@ class MainWindow : public QMainWindow {
   SweepPanel* sweep_;
   FindingsPanel* findings_;
   ReportExport* report_ = nullptr;
+  UncertaintyPane* uncertainty_;
   GettingStarted* guide_ = nullptr;
   QLabel* busyLabel_;
   QMenu* recentMenu_ = nullptr;

@@ -13,12 +13,14 @@
 #include "measures/units.h"
 #include "param_editor.h"
 #include "result_text.h"
+#include "uncertainty/permutation_test.h"
+#include "uncertainty/spread.h"
 
 namespace barrow::ui {
 
 namespace {
 
-enum Column { kName = 0, kValue, kChange, kUnit, kStatus, kTime, kColumns };
+enum Column { kName = 0, kValue, kChange, kUnit, kStatus, kTime, kInterval, kPValue, kColumns };
 constexpr int kIdRole = Qt::UserRole + 1;
 constexpr int kKeyRole = Qt::UserRole + 2;
 
@@ -33,7 +35,8 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   layout->addWidget(details_, 1);
   tree_->setObjectName("measuresTable");
   tree_->setColumnCount(kColumns);
-  tree_->setHeaderLabels({tr("Measure"), tr("Value"), tr("Δ from θ₀"), tr("Unit"), tr("Status"), tr("Time")});
+  tree_->setHeaderLabels({tr("Measure"), tr("Value"), tr("Δ from θ₀"), tr("Unit"), tr("Status"), tr("Time"),
+                          tr("Interval"), tr("p (same?)")});
   tree_->headerItem()->setToolTip(kName, tr("Tick a measure to put it on the Sweep plots; unfold it to edit its parameters"));
   tree_->headerItem()->setToolTip(kValue, tr("D(A, B) as defined in the design notes, for the clouds on the Field"));
   tree_->headerItem()->setToolTip(kChange, tr("Value minus the value with A at the reference θ₀ of the sweep"));
@@ -41,6 +44,11 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
                                            "coordinates; nats for KL and JS (see the details below)"));
   tree_->headerItem()->setToolTip(kStatus, tr("ok, infinite, not converged (with the marginal error) or invalid (with the reason)"));
   tree_->headerItem()->setToolTip(kTime, tr("Wall time of the last evaluation"));
+  tree_->headerItem()->setToolTip(kInterval, tr("Value [95 % percentile interval over bootstrap resamples of both clouds]: "
+                                                "how much the value moves from sample to sample. It does not show the "
+                                                "estimator's bias (see the value-versus-size plot)."));
+  tree_->headerItem()->setToolTip(kPValue, tr("Permutation test p-value: could A and B come from one distribution? "
+                                              "p = (1 + #{T_perm ≥ T_obs}) / (1 + P)"));
   tree_->setAlternatingRowColors(true);
   tree_->setUniformRowHeights(true);
   tree_->setRootIsDecorated(true);
@@ -53,7 +61,8 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   const QFontMetrics fm(font());
   const int widths[kColumns] = {0, fm.horizontalAdvance("0.000000  "), fm.horizontalAdvance("+0.000000  "),
                                 fm.horizontalAdvance("length^0.5   "),  // "dimensionless" elides readably
-                                fm.horizontalAdvance("infinite   "), fm.horizontalAdvance("000.0 ms ")};
+                                fm.horizontalAdvance("infinite   "), fm.horizontalAdvance("000.0 ms "),
+                                fm.horizontalAdvance("0.000 [0.000, 0.000]  "), fm.horizontalAdvance("0.0000  ")};
   for (int c = kValue; c < kColumns; ++c) {
     tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);
     tree_->header()->resizeSection(c, widths[c]);
@@ -129,6 +138,8 @@ void MeasuresPanel::build() {
     item->setTextAlignment(kValue, Qt::AlignRight | Qt::AlignVCenter);
     item->setTextAlignment(kChange, Qt::AlignRight | Qt::AlignVCenter);
     item->setTextAlignment(kTime, Qt::AlignRight | Qt::AlignVCenter);
+    item->setTextAlignment(kInterval, Qt::AlignRight | Qt::AlignVCenter);
+    item->setTextAlignment(kPValue, Qt::AlignRight | Qt::AlignVCenter);
     item->setText(kStatus, m->cheap() ? tr("waiting") : tr("waiting (slow)"));
     for (const auto& p : m->params()) {
       auto* child = new QTreeWidgetItem(item);
@@ -201,7 +212,7 @@ void MeasuresPanel::markUpdating() {
   for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
     QTreeWidgetItem* it = tree_->topLevelItem(r);
     if (it->data(kName, kIdRole).toString().isEmpty()) continue;
-    for (int c = kValue; c < kColumns; ++c) it->setForeground(c, QColor(120, 120, 120));
+    for (int c = kValue; c < kInterval; ++c) it->setForeground(c, QColor(120, 120, 120));
   }
 }
 
@@ -217,7 +228,7 @@ void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
     row->setText(kStatus, statusText(r));
     row->setToolTip(kStatus, statusTooltip(r));
     row->setText(kTime, secondsText(r.seconds));
-    for (int c = kValue; c < kColumns; ++c) row->setForeground(c, QBrush());
+    for (int c = kValue; c < kInterval; ++c) row->setForeground(c, QBrush());
     if (r.status == Status::InvalidInput || r.status == Status::NotConverged)
       row->setForeground(kStatus, QColor(213, 94, 0));
   }
@@ -225,6 +236,70 @@ void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
     if (QTreeWidgetItem* row = rowOf(id)) row->setText(kStatus, tr("updating…"));
   if (QTreeWidgetItem* cur = tree_->currentItem())
     showDetails(cur->data(kName, kIdRole).toString().toStdString());
+}
+
+int MeasuresPanel::intervalColumn() { return kInterval; }
+int MeasuresPanel::pValueColumn() { return kPValue; }
+
+namespace {
+
+QString three(double v) {
+  if (std::isnan(v)) return QStringLiteral("—");
+  if (std::isinf(v)) return v > 0 ? QStringLiteral("∞") : QStringLiteral("−∞");
+  return QString::number(v, 'g', 3);
+}
+
+}  // namespace
+
+void MeasuresPanel::setUncertainty(const SpreadResult& spread, const PermuteResult& permute) {
+  uncertaintyStale_ = false;
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    it->setText(kInterval, QString());
+    it->setText(kPValue, QString());
+    it->setForeground(kInterval, QBrush());
+    it->setForeground(kPValue, QBrush());
+  }
+  const auto& sr = spread.request;
+  for (const SpreadRow& row : spread.rows) {
+    QTreeWidgetItem* it = rowOf(row.id);
+    if (!it) continue;
+    const bool ok = !std::isnan(row.low);
+    it->setText(kInterval, ok ? three(row.value) + " [" + three(row.low) + ", " + three(row.high) + "]"
+                              : QString::fromUtf8(statusName(row.status)));
+    it->setToolTip(kInterval, tr("%1 % %2 interval from %3 resamples (seed %4); resample sd %5%6")
+                                  .arg(sr.level * 100, 0, 'g', 3)
+                                  .arg(QString::fromUtf8(intervalKindName(sr.interval)))
+                                  .arg(sr.resamples)
+                                  .arg(qulonglong(sr.seed))
+                                  .arg(three(row.sd))
+                                  .arg(row.message.empty() ? QString() : "\n" + QString::fromStdString(row.message)));
+  }
+  for (const PermuteRow& row : permute.rows) {
+    QTreeWidgetItem* it = rowOf(row.id);
+    if (!it) continue;
+    it->setText(kPValue, std::isnan(row.pValue) ? QString::fromUtf8(statusName(row.status))
+                                                : QString::number(row.pValue, 'g', 3));
+    it->setToolTip(kPValue, tr("%1 permutations (seed %2): %3 scored at least the observed value; the smallest "
+                               "possible p is %4")
+                                .arg(permute.request.permutations)
+                                .arg(qulonglong(permute.request.seed))
+                                .arg(row.exceed)
+                                .arg(three(1.0 / (1.0 + permute.request.permutations))));
+  }
+}
+
+void MeasuresPanel::markUncertaintyStale() {
+  if (uncertaintyStale_) return;
+  uncertaintyStale_ = true;
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    for (int c : {int(kInterval), int(kPValue)}) {
+      if (it->text(c).isEmpty()) continue;
+      it->setForeground(c, QColor(160, 160, 160));
+      it->setToolTip(c, tr("Stale: the clouds or settings changed after this was computed. Run the resampling again."));
+    }
+  }
 }
 
 const Result* MeasuresPanel::result(const std::string& id) const {

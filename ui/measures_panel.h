@@ -1,5 +1,6 @@
 // The Measures table: one row per registered measure with its value, the change from the
-// reference θ, the unit of both, its status (with the reason), compute time, and a check box that puts it on
+// reference θ, the unit of both, its status (with the reason), compute time, the resampling
+// interval and the permutation p-value once computed, and a check box that puts it on
 // the Sweep plots. Each row unfolds into its parameters, editable in place with units and
 // valid ranges from the measure's ParamSpec. Below, the selected measure's formula and the
 // settings it actually used.
@@ -18,6 +19,11 @@ class QTreeWidgetItem;
 class QTextBrowser;
 class QLabel;
 
+namespace barrow {
+struct SpreadResult;
+struct PermuteResult;
+}  // namespace barrow
+
 namespace barrow::ui {
 
 class MeasuresPanel : public QWidget {
@@ -28,6 +34,15 @@ class MeasuresPanel : public QWidget {
   /// A new request went out: keep the old numbers but mark every row as updating.
   void markUpdating();
   void applyUpdate(const LiveUpdate& u);
+  /// Interval ("0.412 [0.388, 0.441]") and p-value cells from a finished resampling run.
+  void setUncertainty(const SpreadResult& spread, const PermuteResult& permute);
+  /// The clouds or settings changed after the run: grey the interval and p-value cells and
+  /// say so in their tooltips (they describe the old clouds).
+  void markUncertaintyStale();
+  bool uncertaintyStale() const { return uncertaintyStale_; }
+  /// Column numbers of the interval and p-value cells (for cellText).
+  static int intervalColumn();
+  static int pValueColumn();
 
   /// Cell texts, for tests and the CSV export: column 0..5 of a measure's row (name, value,
   /// change, unit, status, time).
@@ -57,6 +72,7 @@ class MeasuresPanel : public QWidget {
   std::map<std::string, Result> results_;
   std::map<std::string, std::optional<Result>> references_;
   bool updatingUi_ = false;
+  bool uncertaintyStale_ = false;
 };
 
 }  // namespace barrow::ui

@@ -69,6 +69,14 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
   steps_->setRange(2, 100001);
   steps_->setKeyboardTracking(false);
   steps_->setToolTip(tr("Number of θ values (refinement near jumps adds more)"));
+  resamples_ = new QSpinBox(this);
+  resamples_->setObjectName("sweepResamples");
+  resamples_->setRange(0, 2000);
+  resamples_->setSingleStep(50);
+  resamples_->setSpecialValueText(tr("none"));
+  resamples_->setToolTip(tr("Resampling bands: this many bootstrap resamples of both clouds at every θ give a "
+                            "95 % band around each curve (0 = none). Shows whether a jump is larger than the "
+                            "sample-to-sample variation; costs that many sweeps."));
   reference_ = number(this, -1e6, 1e6, 3,
                       tr("Reference θ₀: data-dependent settings (bandwidths, grids) are frozen here, "
                          "and the Measures table shows changes from the values at θ₀"));
@@ -110,6 +118,8 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
   rangeRow->addWidget(steps_);
   rangeRow->addWidget(new QLabel(tr("θ₀"), this));
   rangeRow->addWidget(reference_);
+  rangeRow->addWidget(new QLabel(tr("bands"), this));
+  rangeRow->addWidget(resamples_);
   rangeRow->addStretch(1);
   auto* actions = new QHBoxLayout();
   actions->addWidget(runButton_);
@@ -324,7 +334,7 @@ void SweepPanel::startNextPass() {
   status_->setText(parts_.empty() ? tr("Sweeping %1…").arg(names.join(", "))
                                   : tr("%1 — now the slow measures: %2…").arg(status_->text(), names.join(", ")));
   progress_->setValue(0);
-  runner_.start(runA_, runB_, s, runParams_);
+  runner_.start(runA_, runB_, s, runParams_, resamples_->value());
 }
 
 void SweepPanel::setActive(bool on) {

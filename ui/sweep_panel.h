@@ -80,6 +80,7 @@ class SweepPanel : public QWidget {
   QDoubleSpinBox* from_;
   QDoubleSpinBox* to_;
   QSpinBox* steps_;
+  QSpinBox* resamples_;  // bands: resamples per θ (0 = no bands); a view option, not saved
   QDoubleSpinBox* reference_;
   QCheckBox* normalise_;
   QPushButton* runButton_;

@@ -202,7 +202,7 @@ void SweepPlots::setResult(const std::vector<SweepResult>& parts, const std::vec
   curves_.clear();
   message_.clear();
   for (const SweepResult& r : parts) {
-    for (const SweepSeries& s : r.series) curves_.push_back({s.id, r.theta, s.value, s.slope});
+    for (const SweepSeries& s : r.series) curves_.push_back({s.id, r.theta, s.value, s.slope, s.low, s.high});
     if (!r.message.empty()) message_ += (message_.isEmpty() ? "" : "\n") + QString::fromStdString(r.message);
   }
   std::stable_sort(curves_.begin(), curves_.end(),
@@ -278,10 +278,33 @@ void SweepPlots::rebuild() {
     }
     QString name = QString::fromStdString(c.id);
     if (std::any_of(c.value.begin(), c.value.end(), [](double v) { return std::isinf(v); })) name += " (∞)";
+    if (c.low.size() == c.theta.size() && c.high.size() == c.theta.size() && !c.theta.empty()) {
+      // Resampling band: the low edge filled up to the high edge, in the curve's colour.
+      QVector<double> bl, bh;
+      for (std::size_t k = 0; k < c.theta.size(); ++k) {
+        bl.push_back(std::isfinite(c.low[k]) ? (c.low[k] - sc.lo) / sc.span : qQNaN());
+        bh.push_back(std::isfinite(c.high[k]) ? (c.high[k] - sc.lo) / sc.span : qQNaN());
+        if (std::isfinite(bl.back())) ylo = std::min(ylo, bl.back());
+        if (std::isfinite(bh.back())) yhi = std::max(yhi, bh.back());
+      }
+      QColor fill = pen.color();
+      fill.setAlphaF(faded ? 0.06 : (hiLite ? 0.28 : 0.14));
+      auto* top = plot_->addGraph(vx, vy);
+      top->setData(x, bh, true);
+      top->setPen(Qt::NoPen);
+      top->removeFromLegend();
+      auto* bottom = plot_->addGraph(vx, vy);
+      bottom->setData(x, bl, true);
+      bottom->setPen(Qt::NoPen);
+      bottom->setBrush(fill);
+      bottom->setChannelFillGraph(top);
+      bottom->removeFromLegend();
+    }
     auto* g = plot_->addGraph(vx, vy);
     g->setData(x, y, true);
     g->setPen(pen);
     g->setName(name);
+    if (!c.low.empty()) g->setName(name + tr(" ±band"));
     auto* gs = plot_->addGraph(sx, sy);
     gs->setData(x, dy, true);
     gs->setPen(pen);

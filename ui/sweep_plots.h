@@ -84,6 +84,7 @@ class SweepPlots : public QWidget {
   struct Curve {
     std::string id;
     std::vector<double> theta, value, slope;
+    std::vector<double> low, high;  // resampling band (empty: none)
   };
   std::vector<Curve> curves_;
   std::vector<Finding> findings_;

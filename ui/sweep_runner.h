@@ -30,8 +30,9 @@ class SweepRunner : public QObject {
   explicit SweepRunner(QObject* parent = nullptr);
   ~SweepRunner() override;
 
-  /// Starts a sweep of A_θ against B, cancelling one still running.
-  void start(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params);
+  /// Starts a sweep of A_θ against B, cancelling one still running. `resamples` > 0 adds
+  /// resampling bands (core/uncertainty/sweep_bands.h) with that many resamples.
+  void start(const Cloud& a, const Cloud& b, const SweepSettings& settings, const ParamSet& params, int resamples = 0);
   void cancel();
   bool running() const { return running_; }
 
