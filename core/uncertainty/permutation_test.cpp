@@ -69,7 +69,8 @@ PermuteResult runPermutationTest(const Cloud& a, const Cloud& b, const PermuteRe
       ++valid;
       // A tie counts (+inf >= +inf too): it is no evidence against the null. The same split in
       // another row order can differ from T_obs in the last bits, hence the rounding allowance.
-      if (t >= row.value - 1e-12 * std::abs(row.value)) ++row.exceed;
+      const double bar = std::isinf(row.value) ? row.value : row.value - 1e-12 * std::abs(row.value);
+      if (t >= bar) ++row.exceed;
     }
     row.failed = req.permutations - valid;
     row.pValue = double(1 + row.exceed) / double(1 + valid);

@@ -47,7 +47,7 @@ std::optional<std::string> addSweepBands(const Cloud& a, const Cloud& b, SweepRe
   std::vector<double> values(M * T * B, NAN);
   const bool complete = runReplicates(req.resamples, req.threads, control, [&](int rep, const RunControl* inner) {
     ReplicateRng rng(req.seed, std::uint64_t(rep));
-    std::vector<double> u(std::size_t(nA));
+    std::vector<double> u(static_cast<std::size_t>(nA));
     for (double& x : u) x = rng.uniform();
     const Cloud rb = drawSample(b, drawB, int(b.size()), rng);
     std::vector<std::shared_ptr<WarmState>> warm(M);

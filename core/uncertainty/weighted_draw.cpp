@@ -40,7 +40,7 @@ PooledPair::PooledPair(const Cloud& a, const Cloud& b) : sizeA(a.size()) {
 
 void PooledPair::split(ReplicateRng& rng, Cloud* a, Cloud* b) const {
   const Eigen::Index n = points.rows();
-  std::vector<Eigen::Index> order(std::size_t(n));
+  std::vector<Eigen::Index> order(static_cast<std::size_t>(n));
   std::iota(order.begin(), order.end(), Eigen::Index(0));
   for (Eigen::Index i = n - 1; i > 0; --i)
     std::swap(order[std::size_t(i)], order[std::size_t(rng.below(std::uint64_t(i + 1)))]);
