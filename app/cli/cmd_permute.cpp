@@ -6,6 +6,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "cli/resampling_cli.h"
+#include "measures/number_text.h"
 #include "uncertainty/permutation_test.h"
 
 namespace barrow::cli {
@@ -42,8 +43,8 @@ int runPermute(const std::vector<std::string>& argv) {
     if (!row.message.empty()) j["message"] = row.message;
     out["measures"].push_back(j);
     if (!args.flag("json")) {
-      std::printf("%-10s %-14s %-10s %s\n", row.id.c_str(), formatNumber(row.value).c_str(),
-                  formatNumber(row.pValue).c_str(), statusName(row.status));
+      std::printf("%-10s %-14s %-10s %s\n", row.id.c_str(), sixDigits(row.value).c_str(),
+                  sixDigits(row.pValue).c_str(), statusName(row.status));
       if (!row.message.empty()) std::printf("%-10s note: %s\n", "", row.message.c_str());
     }
   }

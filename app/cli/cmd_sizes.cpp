@@ -8,6 +8,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "cli/resampling_cli.h"
+#include "measures/number_text.h"
 #include "uncertainty/value_vs_size.h"
 
 namespace barrow::cli {
@@ -55,7 +56,7 @@ int runSizes(const std::vector<std::string>& argv) {
     std::printf("%d subsamples per size, seed %llu; mean ± sd per size, slope of log(mean) against log(n)\n",
                 req.repeats, (unsigned long long)req.seed);
     std::printf("%-10s", "n");
-    for (int n : r.sizes) std::printf(" %21d", n);
+    for (int n : r.sizes) std::printf(" %23d", n);
     std::printf("   slope\n");
   }
   for (const SizesRow& row : r.rows) {
@@ -73,10 +74,10 @@ int runSizes(const std::vector<std::string>& argv) {
     if (!args.flag("json")) {
       std::printf("%-10s", row.id.c_str());
       for (std::size_t s = 0; s < row.mean.size(); ++s) {
-        const std::string cell = formatNumber(row.mean[s]).substr(0, 10) + "±" + formatNumber(row.sd[s]).substr(0, 8);
-        std::printf(" %21s", cell.c_str());
+        const std::string cell = sixDigits(row.mean[s]) + " ± " + sixDigits(row.sd[s]);
+        std::printf(" %23s", cell.c_str());
       }
-      std::printf("   %s  %s\n", formatNumber(row.slope).substr(0, 7).c_str(), statusName(row.status));
+      std::printf("   %s  %s\n", sixDigits(row.slope).c_str(), statusName(row.status));
       if (!row.message.empty()) std::printf("%-10s note: %s\n", "", row.message.c_str());
     }
   }

@@ -6,6 +6,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "cli/resampling_cli.h"
+#include "measures/number_text.h"
 #include "uncertainty/spread.h"
 
 namespace barrow::cli {
@@ -49,9 +50,9 @@ int runSpread(const std::vector<std::string>& argv) {
     if (!row.message.empty()) j["message"] = row.message;
     out["measures"].push_back(j);
     if (!args.flag("json")) {
-      const std::string iv = "[" + formatNumber(row.low) + ", " + formatNumber(row.high) + "]";
-      std::printf("%-10s %-14s %-32s %-12s %s\n", row.id.c_str(), formatNumber(row.value).c_str(), iv.c_str(),
-                  formatNumber(row.sd).c_str(), statusName(row.status));
+      const std::string iv = "[" + sixDigits(row.low) + ", " + sixDigits(row.high) + "]";
+      std::printf("%-10s %-14s %-32s %-12s %s\n", row.id.c_str(), sixDigits(row.value).c_str(), iv.c_str(),
+                  sixDigits(row.sd).c_str(), statusName(row.status));
       if (!row.message.empty())
         std::printf("%-10s note: %s%s\n", "", row.failed > 0 ? (std::to_string(row.failed) + " resamples failed; ").c_str() : "",
                     row.message.c_str());
