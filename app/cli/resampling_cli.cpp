@@ -83,7 +83,10 @@ std::string resamplingHelp(const std::string& command) {
            "Either one shows sample-to-sample variation only. It does NOT show the estimator's\n"
            "bias: resamples scatter around the sample value, not the population value, and\n"
            "exact W1 between samples, for one, sits above the population W1 by an amount that\n"
-           "shrinks with the sample size (see `barrow-cli sizes`).\n";
+           "shrinks with the sample size (see `barrow-cli sizes`). Resampling can even add to\n"
+           "it: a resample repeats some points and drops others, so for W1 and its kin the\n"
+           "resamples sit further apart than the originals and the percentile interval may lie\n"
+           "wholly above the value. Read the sd then, or use --interval basic.\n";
   if (command == "permute")
     return "usage: barrow-cli permute --a A --b B [--measures ...] [--set key=value ...] [--permutations 999]\n"
            "                          [--seed S] [--threads N] [--json]\n\n"
