@@ -9,6 +9,7 @@ set(BARROW_CORE_LAYERS
   "measures"                    # the Measure interface, every measure, the registry
   "families"                    # θ ↦ A_θ
   "sweep"                       # sweeps, continuity findings
+  "uncertainty"                 # resampling intervals, permutation test, value versus n, bands
   "io"                          # every file format
   "scenario report"             # generators and the demo · the self-contained HTML report
 )

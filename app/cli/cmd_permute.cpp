@@ -6,7 +6,7 @@
 #include "cli/cli_common.h"
 #include "cli/commands.h"
 #include "cli/resampling_cli.h"
-#include "measures/number_text.h"
+#include "base/number_text.h"
 #include "uncertainty/permutation_test.h"
 
 namespace barrow::cli {

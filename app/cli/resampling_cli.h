@@ -9,7 +9,7 @@
 #include <string>
 
 #include "cli/cli_args.h"
-#include "measures/run_control.h"
+#include "base/run_control.h"
 
 namespace barrow::cli {
 

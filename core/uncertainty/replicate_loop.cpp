@@ -1,6 +1,6 @@
 #include "uncertainty/replicate_loop.h"
 
-#include "kernel/parallel_blocks.h"
+#include "base/parallel_blocks.h"
 
 namespace barrow {
 

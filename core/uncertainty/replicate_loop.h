@@ -5,7 +5,7 @@
 
 #include <functional>
 
-#include "measures/run_control.h"
+#include "base/run_control.h"
 
 namespace barrow {
 

@@ -15,7 +15,7 @@
 #include <string>
 
 #include "cloud/cloud.h"
-#include "measures/run_control.h"
+#include "base/run_control.h"
 #include "sweep/sweep_result.h"
 #include "uncertainty/uncertainty_limits.h"
 

@@ -2,7 +2,7 @@
 
 #include <cmath>
 
-#include "measures/number_text.h"
+#include "base/number_text.h"
 
 namespace barrow {
 

@@ -4,7 +4,7 @@
 
 #include "measures/registry.h"
 #include "support/test_support.h"
-#include "sweep/sweep_csv.h"
+#include "io/sweep_csv.h"
 #include "sweep/sweep_engine.h"
 #include "families/family_map.h"
 #include "uncertainty/spread.h"
