@@ -38,7 +38,7 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
   tree_->setHeaderLabels({tr("Measure"), tr("Value"), tr("Δ from θ₀"), tr("Unit"), tr("Status"), tr("Time"),
                           tr("Interval"), tr("p (same?)")});
   tree_->headerItem()->setToolTip(kName, tr("Tick a measure to put it on the Sweep plots; unfold it to edit its parameters"));
-  tree_->headerItem()->setToolTip(kValue, tr("D(A, B) as defined in the design notes, for the clouds on the Field"));
+  tree_->headerItem()->setToolTip(kValue, tr("D(A, B) as defined in DEVELOPERS.md (Measure conventions), for the clouds on the Field"));
   tree_->headerItem()->setToolTip(kChange, tr("Value minus the value with A at the reference θ₀ of the sweep"));
   tree_->headerItem()->setToolTip(kUnit, tr("Unit of the value and of its change: length is the unit of the "
                                            "coordinates; nats for KL and JS (see the details below)"));
@@ -67,6 +67,10 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
     tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);
     tree_->header()->resizeSection(c, widths[c]);
   }
+  // The interval and p-value columns appear once there is something to show: empty, they
+  // would take the width the measure names need in a narrow pane.
+  tree_->setColumnHidden(kInterval, true);
+  tree_->setColumnHidden(kPValue, true);
   details_->setObjectName("measureDetails");
   details_->setOpenLinks(false);
   details_->setToolTip(tr("Formula of the selected measure and the settings it used"));
@@ -226,7 +230,7 @@ void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
     row->setText(kValue, valueText(r));
     row->setText(kChange, item.reference ? changeText(r, *item.reference) : QString("—"));
     row->setText(kStatus, statusText(r));
-    row->setToolTip(kStatus, statusTooltip(r));
+    row->setToolTip(kStatus, statusTooltip(r) + tr("\nComputed in %1").arg(secondsText(r.seconds)));
     row->setText(kTime, secondsText(r.seconds));
     for (int c = kValue; c < kInterval; ++c) row->setForeground(c, QBrush());
     if (r.status == Status::InvalidInput || r.status == Status::NotConverged)
@@ -253,6 +257,9 @@ QString three(double v) {
 
 void MeasuresPanel::setUncertainty(const SpreadResult& spread, const PermuteResult& permute) {
   uncertaintyStale_ = false;
+  tree_->setColumnHidden(kInterval, false);
+  tree_->setColumnHidden(kPValue, false);
+  tree_->setColumnHidden(kTime, true);  // room for the measure names; the Status tooltip gives the time
   for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
     QTreeWidgetItem* it = tree_->topLevelItem(r);
     it->setText(kInterval, QString());

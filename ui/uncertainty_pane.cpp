@@ -1,5 +1,7 @@
 #include "uncertainty_pane.h"
 
+#include <QScrollArea>
+
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QProgressBar>
@@ -23,6 +25,7 @@ UncertaintyPane::UncertaintyPane(SessionDocument* doc, MeasuresPanel* table, QWi
   runButton_->setToolTip(tr("200 bootstrap resamples of both clouds (intervals), 199 permutations (p-values) and "
                             "subsamples of 25…n points (value versus size), for every measure but the entropic "
                             "ones; settings fixed once on the clouds as drawn"));
+  cancelButton_->setToolTip(tr("Stop the resampling; the values already shown stay as they are"));
   cancelButton_->setEnabled(false);
   progress_->setRange(0, 1000);
   progress_->setTextVisible(false);
@@ -35,11 +38,21 @@ UncertaintyPane::UncertaintyPane(SessionDocument* doc, MeasuresPanel* table, QWi
   row->addWidget(cancelButton_);
   row->addWidget(progress_);
   row->addStretch(1);
-  auto* layout = new QVBoxLayout(this);
+  // In a scroll area: in a short dock (a 700-pixel-high window) the plot keeps its minimum
+  // height and the pane scrolls, instead of the caption being drawn over the plot.
+  auto* inner = new QWidget;
+  auto* layout = new QVBoxLayout(inner);
   layout->setContentsMargins(2, 2, 2, 2);
   layout->addLayout(row);
   layout->addWidget(status_);
   layout->addWidget(sizes_, 1);
+  auto* scroll = new QScrollArea(this);
+  scroll->setWidgetResizable(true);
+  scroll->setFrameShape(QFrame::NoFrame);
+  scroll->setWidget(inner);
+  auto* outer = new QVBoxLayout(this);
+  outer->setContentsMargins(0, 0, 0, 0);
+  outer->addWidget(scroll);
 
   connect(runButton_, &QPushButton::clicked, this, &UncertaintyPane::run);
   connect(cancelButton_, &QPushButton::clicked, this, &UncertaintyPane::cancel);

@@ -39,7 +39,7 @@ int runSpread(const std::vector<std::string>& argv) {
   nlohmann::json out = {{"measures", nlohmann::json::array()}};
   if (!args.flag("json"))
     std::printf("%d resamples, seed %llu, %s interval at level %s\n%-10s %-14s %-32s %-12s %s\n", req.resamples,
-                (unsigned long long)req.seed, intervalKindName(req.interval), formatNumber(req.level).c_str(), "measure",
+                (unsigned long long)req.seed, intervalKindName(req.interval), shortestText(req.level).c_str(), "measure",
                 "value", "interval", "sd", "status");
   for (const SpreadRow& row : r.rows) {
     nlohmann::json j = {{"id", row.id},           {"value", jsonNumber(row.value)}, {"low", jsonNumber(row.low)},

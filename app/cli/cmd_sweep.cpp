@@ -145,7 +145,7 @@ int runSweep(const std::vector<std::string>& argv) {
   printSweepFrame(r, stdout);
   if (r.bandResamples > 0)
     std::printf("bands: %d resamples per θ, %s percentile interval, seed %llu (lo_<id>, hi_<id> columns)\n",
-                r.bandResamples, formatNumber(r.bandLevel).c_str(), (unsigned long long)r.bandSeed);
+                r.bandResamples, shortestText(r.bandLevel).c_str(), (unsigned long long)r.bandSeed);
   printSweepNotes(r, stdout);
   return kExitOk;
 }

@@ -1,7 +1,8 @@
 // A measure with its settings fixed once on the original pair (A, B): ε, bandwidths, bins and
 // σ that a rule such as "median" or "auto" would derive from the data are resolved there and
 // reused on every resample, permutation and subsample. Re-deriving them per resample would
-// add the setting's own variation to the interval (DESIGN.md, "frozen" settings).
+// add the setting's own variation to the interval (DEVELOPERS.md, Measure conventions:
+// data-dependent settings are frozen).
 #pragma once
 
 #include <string>

@@ -17,6 +17,7 @@
 #include "report/report_build.h"
 #include "report/report_html.h"
 #include "scenario/demo_scenario.h"
+#include "families/family_spec.h"
 #include "sweep/continuity.h"
 
 namespace barrow {
@@ -25,8 +26,8 @@ namespace {
 SweepResult shapedSweep(const Session& s, const std::string& family) {
   SweepResult r;
   r.settings = s.sweep;
-  r.settings.family = family;
-  r.settings.from = family == "mix" ? 0.0 : -1.0;
+  r.settings.family = findFamily(family)->family;
+  r.settings.from = r.settings.family == Family::Mix ? 0.0 : -1.0;
   r.settings.to = 1.0;
   r.settings.steps = 201;
   r.threads = 2;

@@ -28,7 +28,7 @@ Session smallSession() {
   }
   s.a = Cloud("A", a);
   s.b = Cloud("B", b);
-  s.sweep.family = "shift";
+  s.sweep.family = Family::Shift;
   s.sweep.from = -1;
   s.sweep.to = 1;
   s.sweep.steps = 9;

@@ -15,7 +15,7 @@ namespace {
 
 SweepResult smallSweep(const Cloud& a, const Cloud& b) {
   SweepRequest req;
-  req.settings.family = "shift";
+  req.settings.family = Family::Shift;
   req.settings.from = -1.0;
   req.settings.to = 1.0;
   req.settings.steps = 5;
