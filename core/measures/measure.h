@@ -49,6 +49,11 @@ class Measure {
   virtual std::string unitRule() const { return {}; }
   /// True when the value is known to be cheap to recompute (for live updates while dragging).
   virtual bool cheap() const { return true; }
+  /// True when the value depends only on the weighted empirical measure, so a cloud with a
+  /// point repeated k times may be given as that point once with k times the weight (the
+  /// resampling loops then solve smaller problems). False for estimators that count points
+  /// (kNN densities, the unbiased MMD's diagonal), and by default.
+  virtual bool repeatsMayMerge() const { return false; }
 
   /// Evaluates D(A, B). Pre: both clouds validated, ctx.params resolved and valid.
   /// Must not throw for bad data: return Result::invalid(reason) instead.

@@ -26,6 +26,8 @@ class WassersteinMeasure : public Measure {
   /// Exact but warm-started: re-solving after a point moves takes milliseconds for clouds of
   /// a few thousand points.
   bool cheap() const override { return true; }
+  // Optimal transport is defined between measures: merging repeated points changes nothing.
+  bool repeatsMayMerge() const override { return true; }
 
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
 

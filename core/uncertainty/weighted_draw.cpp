@@ -25,10 +25,36 @@ int WeightedSampler::at(double u) const {
 
 int WeightedSampler::draw(ReplicateRng& rng) const { return at(rng.uniform()); }
 
-Cloud drawSample(const Cloud& c, const WeightedSampler& sampler, int k, ReplicateRng& rng) {
-  Eigen::MatrixX2d pts(k, 2);
-  for (int r = 0; r < k; ++r) pts.row(r) = c.points.row(sampler.draw(rng));
+std::vector<int> drawRows(const WeightedSampler& sampler, int k, ReplicateRng& rng) {
+  std::vector<int> rows(std::size_t(std::max(k, 0)));
+  for (int& r : rows) r = sampler.draw(rng);
+  return rows;
+}
+
+Cloud sampleOfRows(const Cloud& c, const std::vector<int>& rows) {
+  Eigen::MatrixX2d pts(Eigen::Index(rows.size()), 2);
+  for (std::size_t r = 0; r < rows.size(); ++r) pts.row(Eigen::Index(r)) = c.points.row(rows[r]);
   return Cloud(c.name, std::move(pts));
+}
+
+Cloud mergedSampleOfRows(const Cloud& c, const std::vector<int>& rows) {
+  std::vector<int> count(std::size_t(c.size()), 0);
+  for (int r : rows) ++count[std::size_t(r)];
+  Eigen::Index distinct = 0;
+  for (int n : count) distinct += n > 0;
+  Eigen::MatrixX2d pts(distinct, 2);
+  Eigen::VectorXd w(distinct);
+  Eigen::Index k = 0;
+  for (std::size_t i = 0; i < count.size(); ++i)
+    if (count[i] > 0) {
+      pts.row(k) = c.points.row(Eigen::Index(i));
+      w(k++) = double(count[i]);  // counts: normalised at use, exact in double
+    }
+  return Cloud(c.name, std::move(pts), std::move(w));
+}
+
+Cloud drawSample(const Cloud& c, const WeightedSampler& sampler, int k, ReplicateRng& rng) {
+  return sampleOfRows(c, drawRows(sampler, k, rng));
 }
 
 PooledPair::PooledPair(const Cloud& a, const Cloud& b) : sizeA(a.size()) {

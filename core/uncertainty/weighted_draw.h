@@ -28,6 +28,15 @@ class WeightedSampler {
 /// measure prescribes [CP] (Efron & Tibshirani 1993, ch. 6).
 Cloud drawSample(const Cloud& c, const WeightedSampler& sampler, int k, ReplicateRng& rng);
 
+/// The rows drawSample picks, in draw order (the same random sequence).
+std::vector<int> drawRows(const WeightedSampler& sampler, int k, ReplicateRng& rng);
+/// One point per draw, uniform weights: what drawSample returns for these rows.
+Cloud sampleOfRows(const Cloud& c, const std::vector<int>& rows);
+/// The same empirical measure with each drawn row once, weighted by how often it was drawn
+/// (rows in increasing order). A bootstrap draw of n from n repeats about 37 % of its points
+/// (1 − 1/e), so exact transport on it solves a problem about 0.63 n on a side.
+Cloud mergedSampleOfRows(const Cloud& c, const std::vector<int>& rows);
+
 /// A and B pooled, each point keeping its weight normalised within its own cloud, then split
 /// at random into clouds of A's and B's sizes (a uniformly random permutation of the pooled
 /// rows, Fisher–Yates; Knuth TAOCP vol. 2, Algorithm 3.4.2P).

@@ -5,6 +5,8 @@
 #include <algorithm>
 #include <cmath>
 
+#include "measures/evaluate.h"
+#include "measures/registry.h"
 #include "support/test_support.h"
 #include "uncertainty/weighted_draw.h"
 
@@ -39,6 +41,40 @@ TEST(WeightedDrawTest, SampleCarriesUniformWeightsAndRequestedSize) {
   const Cloud d = drawSample(c, s, 12, rng);
   ASSERT_EQ(d.size(), 12);
   EXPECT_NEAR((d.weights.array() - d.weights[0]).abs().maxCoeff(), 0.0, 0.0);
+}
+
+// Merging a resample's repeats keeps its empirical measure: every drawn row once, weighted
+// by its count, the same total; and the exact transport value does not change [D] (optimal
+// transport is defined between measures; a point of mass k/n is k points of mass 1/n). The
+// exact solver's certificate is checked to 1e-9 relative (DEVELOPERS.md, Measure
+// conventions); the two problems are different linear programs, so the values may differ
+// in the last bits, not more.
+TEST(WeightedDrawTest, MergedRepeatsKeepTheEmpiricalMeasureAndTheTransportValue) {
+  const Cloud a = test::gaussianCloud(120, 11), b = test::gaussianCloud(90, 12, 1.5);
+  const WeightedSampler sa(a), sb(b);
+  for (std::uint64_t r = 0; r < 5; ++r) {
+    ReplicateRng rng(3, r);
+    const std::vector<int> rowsA = drawRows(sa, 120, rng), rowsB = drawRows(sb, 90, rng);
+    const Cloud pa = sampleOfRows(a, rowsA), pb = sampleOfRows(b, rowsB);
+    const Cloud ma = mergedSampleOfRows(a, rowsA), mb = mergedSampleOfRows(b, rowsB);
+    EXPECT_LT(ma.size(), pa.size()) << "a draw of 120 from 120 repeats some rows";
+    EXPECT_DOUBLE_EQ(ma.weights.sum(), 120.0);
+    for (Eigen::Index i = 0; i < ma.size(); ++i) {
+      int n = 0;
+      for (Eigen::Index j = 0; j < pa.size(); ++j) n += pa.points.row(j) == ma.points.row(i);
+      EXPECT_EQ(double(n), ma.weights[i]) << "row " << i;
+    }
+    for (const char* id : {"w1", "w2"}) {
+      const Measure* m = MeasureRegistry::instance().find(id);
+      ASSERT_NE(m, nullptr);
+      ASSERT_TRUE(m->repeatsMayMerge());
+      const Result plain = evaluateMeasure(*m, pa, pb, EvalRequest{});
+      const Result merged = evaluateMeasure(*m, ma, mb, EvalRequest{});
+      ASSERT_EQ(plain.status, Status::Ok) << plain.message;
+      ASSERT_EQ(merged.status, Status::Ok) << merged.message;
+      EXPECT_NEAR(merged.value, plain.value, 1e-12 * plain.value) << id << " resample " << r;
+    }
+  }
 }
 
 TEST(WeightedDrawTest, SplitKeepsEveryPointWithItsWeight) {
