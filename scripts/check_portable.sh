@@ -4,7 +4,10 @@
 # must take their generic form there; an AVX instruction would stop the run with SIGILL.
 # Needs: qemu-user (Debian package), a default build in build/ (no -DBARROW_NATIVE=ON).
 set -eu
-filter="${1:-CpuFeaturesTest.*:KernelPassTest.*:KernelExpTest.*:PairSumTest.*:SinkhornSolverTest.*:EntropicMeasureTest.*:MmdTest.*:EnergyTest.*:NetworkSimplexTest.*:RegistryTest.*:FamilyMapTest.*}"
+# The default set is the code with two forms (the dispatch, the exp, the kernel passes, the pair
+# sums): about 3.5 minutes under emulation on this 2-core machine. Pass '*' for every engine
+# test (hours under emulation).
+filter="${1:-CpuFeaturesTest.*:KernelExpTest.*:KernelPassTest.*:PairSumTest.*}"
 bin="${BUILD_DIR:-build}/tests/barrow_core_tests"
 [ -x "$bin" ] || { echo "check_portable: $bin not built" >&2; exit 2; }
 exec qemu-x86_64 -cpu Nehalem "$bin" --gtest_filter="$filter" --gtest_brief=1

@@ -27,7 +27,9 @@ fi
 work="$build/fuzz-corpus/$target"
 artifacts="$build/fuzz-artifacts/$target/"
 mkdir -p "$work" "$artifacts"
-seeds=(tests/fuzz/corpus/"$target" tests/fuzz/regressions/"$target")
+seeds=(tests/fuzz/corpus/"$target")
+# A target with no failing input yet has no regressions folder (git keeps no empty folders).
+[ -d tests/fuzz/regressions/"$target" ] && seeds+=(tests/fuzz/regressions/"$target")
 if [ "$target" = csv ]; then
   for d in samples/*/; do seeds+=("$d"); done
 fi

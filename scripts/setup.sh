@@ -10,7 +10,8 @@ PACKAGES=(cmake ninja-build ccache g++ pkg-config
           python3 python3-numpy python3-scipy python3-sklearn
           xvfb xauth fonts-dejavu-core
           clang-14 libclang-rt-14-dev  # fuzz targets (libFuzzer) and sanitizer builds
-          chromium nodejs)  # the report's browser tests (tests/report)
+          chromium nodejs  # the report's browser tests (tests/report)
+          qemu-user)  # scripts/check_portable.sh: the engine on an emulated CPU without AVX2
 
 missing=()
 for p in "${PACKAGES[@]}"; do

@@ -27,7 +27,7 @@
 #include "live_evaluator.h"
 #include "measures/registry.h"
 #include "measures_panel.h"
-#include "report/sweep_passes.h"
+#include "sweep/sweep_merge.h"
 #include "report_export.h"
 #include "scenario/generators.h"
 #include "session_files.h"
@@ -659,7 +659,7 @@ void MainWindow::exportReport(const QString& path) {
   if (!sweep_->parts().empty() && !sweep_->plots()->stale() && !sweep_->cancelled() && !sweep_->running()) {
     std::vector<SweepResult> passes;
     for (const auto& part : sweep_->parts()) passes.push_back(part.result);
-    current = mergeSweepPasses(passes);
+    current = mergeSweeps(passes);
     findings = sweep_->findings();
   }
   auto* dialog = options_.quiet ? nullptr : new QProgressDialog(tr("Writing the report…"), tr("Cancel"), 0, 1000, this);
