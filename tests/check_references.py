@@ -51,6 +51,17 @@ for path in sorted(files):
             if not any(name in l and year in l for l in ref_lines):
                 problems.append(f"{where}: '{name} {year}' has no entry in tests/REFERENCES.md")
 
+# The documents a maintainer reads beside the code may not point outside the repository
+# either (the references file itself included).
+docs = [root / "README.md", root / "DEVELOPERS.md"] + sorted((root / "tests").rglob("*.md")) + \
+       sorted((root / "samples").rglob("*.md"))
+for path in docs:
+    if not path.is_file():
+        continue
+    for n, line in enumerate(path.read_text(encoding="utf-8", errors="replace").splitlines(), 1):
+        if OUTSIDE.search(line):
+            problems.append(f"{path.relative_to(root)}:{n}: points outside the repository: {line.strip()}")
+
 if problems:
     print("\n".join(problems))
     print(f"{len(problems)} citation(s) do not resolve")
