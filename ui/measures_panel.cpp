@@ -1,5 +1,7 @@
 #include "measures_panel.h"
 
+#include <QResizeEvent>
+
 #include <QHeaderView>
 #include <algorithm>
 #include <QTextBrowser>
@@ -242,6 +244,23 @@ void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
     showDetails(cur->data(kName, kIdRole).toString().toStdString());
 }
 
+void MeasuresPanel::resizeEvent(QResizeEvent* e) {
+  QWidget::resizeEvent(e);
+  fitColumns();
+}
+
+void MeasuresPanel::fitColumns() {
+  // Room the names need: a measure id and the start of its name ("hellinger — Hell…"),
+  // after the check box and the curve's line sample.
+  const QFontMetrics fm(font());
+  const int nameRoom = fm.horizontalAdvance("hellinger — Hell…") + 60;
+  int others = 0;
+  for (int c = kValue; c < kColumns; ++c)
+    if (c != kTime && !tree_->isColumnHidden(c)) others += tree_->header()->sectionSize(c);
+  const bool narrow = tree_->viewport()->width() - others - tree_->header()->sectionSize(kTime) < nameRoom;
+  tree_->setColumnHidden(kTime, intervalsShown_ || narrow);
+}
+
 int MeasuresPanel::intervalColumn() { return kInterval; }
 int MeasuresPanel::pValueColumn() { return kPValue; }
 
@@ -259,7 +278,8 @@ void MeasuresPanel::setUncertainty(const SpreadResult& spread, const PermuteResu
   uncertaintyStale_ = false;
   tree_->setColumnHidden(kInterval, false);
   tree_->setColumnHidden(kPValue, false);
-  tree_->setColumnHidden(kTime, true);  // room for the measure names; the Status tooltip gives the time
+  intervalsShown_ = true;
+  fitColumns();
   for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
     QTreeWidgetItem* it = tree_->topLevelItem(r);
     it->setText(kInterval, QString());

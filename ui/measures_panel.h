@@ -58,7 +58,13 @@ class MeasuresPanel : public QWidget {
   void measureFocused(const QString& id);
   void message(const QString& text);
 
+ protected:
+  void resizeEvent(QResizeEvent* e) override;
+
  private:
+  // Hides the Time column when the pane is too narrow for the measure names beside it
+  // (its value stays in the Status tooltip), and whenever the interval columns are shown.
+  void fitColumns();
   void build();
   void refreshParams();
   void refreshSelection();
@@ -73,6 +79,7 @@ class MeasuresPanel : public QWidget {
   std::map<std::string, std::optional<Result>> references_;
   bool updatingUi_ = false;
   bool uncertaintyStale_ = false;
+  bool intervalsShown_ = false;
 };
 
 }  // namespace barrow::ui
