@@ -5,9 +5,9 @@ set(BARROW_CORE_LAYERS
   "base"                        # run control, status, parameters, number text, threads, exp
   "cloud"                       # the weighted point set
   "spatial"                     # k-d tree, nearest-neighbour batches
-  "kernel density transport"    # pair sums, density estimators, OT solvers
+  "kernel density transport critic"  # pair sums, density estimators, OT solvers, critic networks
   "measures"                    # the Measure interface, every measure, the registry
-  "families"                    # θ ↦ A_θ
+  "families critic_check"       # θ ↦ A_θ · a trained critic against the exact W1
   "sweep"                       # sweeps, continuity findings
   "uncertainty"                 # resampling intervals, permutation test, value versus n, bands
   "io"                          # every file format

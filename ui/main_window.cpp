@@ -19,6 +19,7 @@
 #include <sstream>
 
 #include "io/plan_csv.h"
+#include "critic_panel.h"
 #include "field_panel.h"
 #include "field_view.h"
 #include "figure_export.h"
@@ -135,7 +136,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
 MainWindow::~MainWindow() = default;
 
 void MainWindow::buildDocks() {
-  measures_ = new MeasuresPanel(doc_, MeasureRegistry::instance().all(), this);
+  measures_ = new MeasuresPanel(doc_, MeasureRegistry::instance().defaults(), this);
   sweep_ = new SweepPanel(doc_, this);
   findings_ = new FindingsPanel(this);
   uncertainty_ = new UncertaintyPane(doc_, measures_, this);
@@ -152,10 +153,14 @@ void MainWindow::buildDocks() {
   setCorner(Qt::TopRightCorner, Qt::RightDockWidgetArea);
   auto* m = dock(measures_, tr("Measures"), "measuresDock", Qt::RightDockWidgetArea);
   auto* f = dock(findings_, tr("Findings"), "findingsDock", Qt::RightDockWidgetArea);
-  dock(sweep_, tr("Sweep"), "sweepDock", Qt::BottomDockWidgetArea);
+  auto* s = dock(sweep_, tr("Sweep"), "sweepDock", Qt::BottomDockWidgetArea);
   splitDockWidget(m, f, Qt::Vertical);
   tabifyDockWidget(f, dock(uncertainty_, tr("Resampling"), "resamplingDock", Qt::RightDockWidgetArea));
   f->raise();
+  // The critic check shares the bottom area with the Sweep, as a tab behind it.
+  critic_ = new CriticPanel(doc_, this);
+  tabifyDockWidget(s, dock(critic_, tr("Critic"), "criticDock", Qt::BottomDockWidgetArea));
+  s->raise();
 }
 
 void MainWindow::applyDefaultLayout() {
@@ -434,7 +439,7 @@ void MainWindow::submitLive() {
   req.a = s.a;
   req.b = s.b;
   req.params = s.params;
-  req.measures = MeasureRegistry::instance().all();
+  req.measures = MeasureRegistry::instance().defaults();
   req.planId = field_->planId();
   req.entropicPlan = field_->entropicPlanShown();
   req.interactive = doc_->previewing() || sweep_->plots()->dragging();

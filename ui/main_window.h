@@ -17,6 +17,7 @@ class QMenu;
 
 namespace barrow::ui {
 
+class CriticPanel;
 class FieldPanel;
 class FindingsPanel;
 class GettingStarted;
@@ -78,6 +79,7 @@ class MainWindow : public QMainWindow {
   std::string planCsv() const;
   FindingsPanel* findings() const { return findings_; }
   UncertaintyPane* uncertainty() const { return uncertainty_; }
+  CriticPanel* critic() const { return critic_; }
   SessionFiles* files() const { return files_; }
   const QString& lastError() const { return lastError_; }
   void showGettingStarted();
@@ -137,6 +139,7 @@ class MainWindow : public QMainWindow {
   FindingsPanel* findings_;
   ReportExport* report_ = nullptr;
   UncertaintyPane* uncertainty_;
+  CriticPanel* critic_;
   GettingStarted* guide_ = nullptr;
   QLabel* busyLabel_;
   QMenu* recentMenu_ = nullptr;

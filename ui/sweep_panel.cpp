@@ -287,7 +287,7 @@ std::vector<std::string> SweepPanel::measureIds() const {
   const auto& sel = doc_->session().selected;
   if (!sel.empty()) return sel;
   std::vector<std::string> all;
-  for (const Measure* m : MeasureRegistry::instance().all()) all.push_back(m->id());
+  for (const Measure* m : MeasureRegistry::instance().defaults()) all.push_back(m->id());
   return all;
 }
 

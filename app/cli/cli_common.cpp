@@ -24,7 +24,7 @@ Cloud loadCloud(const std::string& path) {
 std::vector<const Measure*> selectMeasures(const CliArgs& args) {
   const auto& reg = MeasureRegistry::instance();
   std::vector<const Measure*> out;
-  if (!args.has("measures")) return reg.all();
+  if (!args.has("measures")) return reg.defaults();
   for (const auto& id : splitList(*args.value("measures"))) {
     if (const Measure* m = reg.find(id)) {
       out.push_back(m);

@@ -28,7 +28,7 @@ struct InternalError {
 /// Reads a CSV or .npy cloud; throws InputError naming file, line and reason.
 Cloud loadCloud(const std::string& path);
 
-/// The measures named in --measures (all registered ones when absent). Unknown ids are an
+/// The measures named in --measures (the registry's default set when absent). Unknown ids are an
 /// InputError naming the registered ones.
 std::vector<const Measure*> selectMeasures(const CliArgs& args);
 

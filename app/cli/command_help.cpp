@@ -28,7 +28,7 @@ const char* kSweepOptions = R"(Sweep options (sweep, findings, report):
   --reference R       θ0 where data-dependent settings (ε, bandwidths, histogram grids, σ) are
                       frozen for the whole sweep (default: the family's identity, θ0 = 1 for
                       scale and 0 otherwise, i.e. A as given); printed after the run
-  --measures ids      comma-separated (default: every measure)
+  --measures ids      comma-separated (default: every measure except the slow critic_*)
   --set key=value     measure parameters (see measure --help)
   --threads N         worker threads (default 0 = all cores); results do not depend on it
   --refine-budget N   θ values refinement may add near suspected jumps (default max(64, steps);
@@ -110,6 +110,22 @@ side A or B, index the 0-based data row. They belong to the cost above (|x-y|^2 
 W2 itself): u_i + v_j <= c_ij for every pair, with equality on the plan, and
 sum_i a_i u_i + sum_j b_j v_j = the optimal cost. They are unique only up to u + t, v - t
 (more freedom when the problem is degenerate). The summary names the cost.
+)";
+  if (command == "critic")
+    return R"(barrow-cli critic --a A --b B [--method clip|gp|sn|all] [--steps N] [--seed S]
+                  [--set critic.key=value ...] [--json]
+
+Trains a small MLP critic f (default 2-64-64-1, ReLU) to maximise E_A f - E_B f on minibatches
+drawn from the weighted clouds, kept near 1-Lipschitz by weight clipping + RMSProp, gradient
+penalty + Adam, or spectral normalisation + Adam, each with its paper's defaults, and compares
+it with the exact W1 (default --method all, --steps 1000, --seed 1).
+Per method: estimate E_A f - E_B f; lower_bound = estimate / L_upper <= W1 (Kantorovich-
+Rubinstein duality); L_upper = product of the layers' spectral norms; L_measured = largest
+|grad f| on a grid over both clouds and on the data; potential_correlation = correlation of f
+with the exact W1 potential on the data points; steps; seconds; status.
+--json: {"critics":[{"method","estimate","lower_bound","w1","lipschitz_upper",
+                     "lipschitz_measured","potential_correlation","steps","seconds","status"}]}
+Parameters (critic.*) as listed below; --steps and --seed set critic.steps and critic.seed.
 )";
   return "";
 }

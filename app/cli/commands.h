@@ -25,6 +25,7 @@ int runReport(const std::vector<std::string>& argv);
 int runSpread(const std::vector<std::string>& argv);
 int runPermute(const std::vector<std::string>& argv);
 int runSizes(const std::vector<std::string>& argv);
+int runCritic(const std::vector<std::string>& argv);
 
 // Shared by sweep, findings and demo (defined in cmd_sweep.cpp).
 const std::vector<std::string>& sweepOptionNames();  // valued options that describe a sweep

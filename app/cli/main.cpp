@@ -28,6 +28,8 @@ usage:
   barrow-cli spread   --a A --b B [--measures ...] [--resamples 200] [--level 0.95] [--seed S] [--json]
   barrow-cli permute  --a A --b B [--measures ...] [--permutations 999] [--seed S] [--json]
   barrow-cli sizes    --a A --b B [--measures ...] [--sizes n1,n2,...] [--repeats 20] [--seed S] [--json]
+  barrow-cli critic   --a A --b B [--method clip|gp|sn|all] [--steps N] [--seed S]
+                      [--set critic.key=value ...] [--json]   (Lipschitz critics against exact W1)
   barrow-cli --help | --version | COMMAND --help
 
 Clouds are CSV (columns x,y[,w]; header optional) or NumPy .npy of shape (n,2) or (n,3).
@@ -37,6 +39,7 @@ plan --potentials writes side,index,potential (side A or B, index = 0-based data
 Parameters: --set group.key=value, e.g. --set sinkhorn.epsilon=0.01 --set density.bin=0.25
 Measures: w1 w2 entropic sinkhorn sliced mmd energy frechet chamfer hausdorff
           kl_ab kl_ba js tv hellinger   (formulas and parameters: barrow-cli measure --help)
+          critic_clip critic_gp critic_sn   (slow; run only when named in --measures)
 Exit codes: 0 ok, 2 bad input (the message names file, line and reason), 1 internal failure.
 Every value is an estimate from finite samples under the chosen settings.
 )";
@@ -60,7 +63,7 @@ int main(int argc, char** argv) {
     if (a == "--help" || a == "-h") {
       const std::string own = resamplingHelp(cmd).empty() ? commandHelp(cmd) : resamplingHelp(cmd);
       std::fputs(own.empty() ? kUsage : own.c_str(), stdout);
-      if (cmd == "measure" || cmd == "sweep") std::fputs(("\n" + measuresHelp()).c_str(), stdout);
+      if (cmd == "measure" || cmd == "sweep" || cmd == "critic") std::fputs(("\n" + measuresHelp()).c_str(), stdout);
       return kExitOk;
     }
   try {
@@ -73,6 +76,7 @@ int main(int argc, char** argv) {
     if (cmd == "spread") return runSpread(rest);
     if (cmd == "permute") return runPermute(rest);
     if (cmd == "sizes") return runSizes(rest);
+    if (cmd == "critic") return runCritic(rest);
     std::fprintf(stderr, "barrow-cli: unknown command '%s' (see --help)\n", cmd.c_str());
     return kExitBadInput;
   } catch (const UsageError& e) {

@@ -14,7 +14,8 @@ std::string measuresHelp() {
   std::set<std::string> listed;  // parameter keys already shown
   for (const Measure* m : MeasureRegistry::instance().all()) {
     out += "\n  " + m->id() + std::string(m->id().size() < 10 ? 10 - m->id().size() : 1, ' ') + m->displayName() +
-           (m->cheap() ? "" : "  (slow: updates after the others in the GUI)") + "\n";
+           (m->cheap() ? "" : "  (slow: updates after the others in the GUI)") +
+           (m->inDefaultSet() ? "" : "  (not in the default set: name it in --measures)") + "\n";
     out += "            " + m->formula() + "\n";
     out += "            unit: " + m->unitRule() + "\n";
     std::set<std::string> pointed;  // groups of this measure already shown above

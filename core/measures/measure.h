@@ -54,6 +54,9 @@ class Measure {
   /// resampling loops then solve smaller problems). False for estimators that count points
   /// (kNN densities, the unbiased MMD's diagonal), and by default.
   virtual bool repeatsMayMerge() const { return false; }
+  /// True when the measure runs when the user names none (CLI without --measures, a sweep
+  /// without a list, the window's Measures table). Slow opt-in measures return false.
+  virtual bool inDefaultSet() const { return true; }
 
   /// Evaluates D(A, B). Pre: both clouds validated, ctx.params resolved and valid.
   /// Must not throw for bad data: return Result::invalid(reason) instead.

@@ -26,8 +26,11 @@ MeasureRegistry::MeasureRegistry() {
   registerKernelMeasures(*this);
   registerGeometricMeasures(*this);
   registerDensityMeasures(*this);
+  registerCriticMeasures(*this);
   std::stable_sort(view_.begin(), view_.end(),
                    [](const Measure* x, const Measure* y) { return designRank(x->id()) < designRank(y->id()); });
+  for (const Measure* m : view_)
+    if (m->inDefaultSet()) defaults_.push_back(m);
 }
 
 const MeasureRegistry& MeasureRegistry::instance() {

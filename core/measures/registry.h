@@ -15,6 +15,8 @@ class MeasureRegistry {
 
   /// All registered measures, in the canonical order (w1, w2, entropic, ...).
   const std::vector<const Measure*>& all() const { return view_; }
+  /// The measures run when none are named: all() without the opt-in ones (inDefaultSet()).
+  const std::vector<const Measure*>& defaults() const { return defaults_; }
   /// nullptr when no measure has that id.
   const Measure* find(const std::string& id) const;
   /// Position of `id` in all() (all().size() when unknown): the order tables and lists use.
@@ -28,6 +30,7 @@ class MeasureRegistry {
   MeasureRegistry();
   std::vector<std::unique_ptr<Measure>> owned_;
   std::vector<const Measure*> view_;
+  std::vector<const Measure*> defaults_;
 };
 
 /// Every documented measure id (DEVELOPERS.md, Measure conventions), in its order (some may not be registered yet).
@@ -40,5 +43,6 @@ void registerSlicedMeasures(MeasureRegistry& r);     // sliced
 void registerKernelMeasures(MeasureRegistry& r);     // mmd, energy, frechet
 void registerGeometricMeasures(MeasureRegistry& r);  // chamfer, hausdorff
 void registerDensityMeasures(MeasureRegistry& r);    // kl_ab, kl_ba, js, tv, hellinger
+void registerCriticMeasures(MeasureRegistry& r);     // critic_clip, critic_gp, critic_sn (opt-in)
 
 }  // namespace barrow

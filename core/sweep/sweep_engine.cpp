@@ -180,7 +180,7 @@ std::vector<const Measure*> pickMeasures(const SweepRequest& req, std::string* w
     return req.measureObjects;
   }
   const auto& registry = MeasureRegistry::instance();
-  if (req.settings.measures.empty()) return registry.all();
+  if (req.settings.measures.empty()) return registry.defaults();
   std::vector<const Measure*> out;
   for (const auto& id : req.settings.measures) {
     const Measure* m = registry.find(id);

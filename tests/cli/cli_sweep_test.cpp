@@ -171,13 +171,13 @@ TEST(CliSweepTest, DemoWritesCloudsAndSweepAndPrintsFindings) {
   ASSERT_EQ(cli("demo --out " + dir, &out, &err), 0) << err;
   for (const char* f : {"a.csv", "b.csv", "sweep.csv"}) EXPECT_TRUE(std::filesystem::exists(dir + "/" + f)) << f;
   const Csv c = readCsv(dir + "/sweep.csv");
-  EXPECT_EQ(c.header.size(), 1 + 2 * MeasureRegistry::instance().all().size());
+  EXPECT_EQ(c.header.size(), 1 + 2 * MeasureRegistry::instance().defaults().size());
   EXPECT_GE(c.rows.size(), 121u);
-  for (const Measure* m : MeasureRegistry::instance().all())
+  for (const Measure* m : MeasureRegistry::instance().defaults())
     EXPECT_NE(out.find("\n" + m->id() + " "), std::string::npos) << m->id() << "\n" << out;
   std::string json;
   ASSERT_EQ(cli("findings --sweep " + dir + "/sweep.csv --json", &json, &err), 0) << err;
-  expectFindingsShape(json, MeasureRegistry::instance().all().size());
+  expectFindingsShape(json, MeasureRegistry::instance().defaults().size());
   std::filesystem::remove_all(dir);
 }
 

@@ -82,7 +82,7 @@ TEST(ScreenshotTest, DemoShowsBothCloudsAndCurves) {
   EXPECT_GT(plots->curveCount(), 0);
   const QRect valueRect = rectIn(&w, plots->plot(), plots->valueRect()->rect());
   int curvePixels = 0;
-  for (const Measure* m : MeasureRegistry::instance().all())
+  for (const Measure* m : MeasureRegistry::instance().defaults())
     curvePixels += countNear(img, valueRect, measurePen(m->id()).color(), 40);
   EXPECT_GT(curvePixels, 2000) << "curves on the sweep plot";
 }

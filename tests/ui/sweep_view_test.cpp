@@ -68,7 +68,7 @@ TEST(SweepViewTest, ThetaCursorMovesAOnTheFieldAndBackWhenReleased) {
   EXPECT_TRUE(sameCloud(w->session().a, demoSession().a));  // the drawing itself is untouched
   // The change column compares with θ₀ = 0, so a measure that moved shows a non-zero change.
   bool anyChange = false;
-  for (const Measure* m : MeasureRegistry::instance().all()) {
+  for (const Measure* m : MeasureRegistry::instance().defaults()) {
     const QString c = w->measures()->cellText(m->id(), 2);
     if (c != "0" && c != "—") anyChange = true;
   }

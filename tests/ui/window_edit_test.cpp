@@ -254,7 +254,7 @@ TEST(WindowEditTest, ParameterEditedInPlaceIsValidatedThenUndoable) {
   // The first numeric parameter with a lower bound, wherever it is.
   QTreeWidgetItem* child = nullptr;
   ParamSpec spec;
-  for (const Measure* m : MeasureRegistry::instance().all())
+  for (const Measure* m : MeasureRegistry::instance().defaults())
     for (const auto& p : m->params())
       if (!child && p.kind == ParamKind::Real && p.hasMin())
         for (int r = 0; r < tree->topLevelItemCount() && !child; ++r)
