@@ -84,6 +84,7 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   progress_->setMaximumHeight(8);
   summary_ = new QLabel(tr("Train a critic to compare it with the exact W1."));
   summary_->setWordWrap(true);
+  summary_->setTextFormat(Qt::RichText);
   summary_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   summary_->setAlignment(Qt::AlignTop | Qt::AlignLeft);
 
@@ -133,11 +134,16 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   addGraph(tr("exact W1"), exactPen);
   curve_->legend->setVisible(true);
   curve_->legend->setFont(QFont(font().family(), 8));
-  curve_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignBottom | Qt::AlignRight);
+  // The legend sits under the plot: inside, it covered the curves of a narrow pane.
+  curve_->plotLayout()->addElement(1, 0, curve_->legend);
+  curve_->plotLayout()->setRowStretchFactor(1, 0.001);
+  curve_->legend->setBorderPen(Qt::NoPen);
+  curve_->legend->setRowSpacing(0);
 
-  fPlot_ = makeMap(tr("critic f"), &fMap_);
-  phiPlot_ = makeMap(tr("exact potential φ"), &phiMap_);
-  gradPlot_ = makeMap(tr("‖∇f‖ (white = 1)"), &gradMap_);
+  fPlot_ = makeMap(tr("critic f\n(trained network)"), &fMap_);
+  phiPlot_ = makeMap(tr("exact potential φ\n(W1 solver)"), &phiMap_);
+  gradPlot_ = makeMap(tr("‖∇f‖ (white = 1)\nblue < 1 < orange"), &gradMap_);
+  gradPlot_->setToolTip(tr("Gradient norm of the critic: white where it is 1 (what a 1-Lipschitz critic reaches on the transport lines), blue below, orange above; the scale runs from 0 to 2."));
   gradMap_->setGradient(slopeGradient());
   auto* maps = new QWidget;
   auto* mapBox = new QHBoxLayout(maps);
@@ -242,19 +248,23 @@ void CriticPanel::train() {
 void CriticPanel::onFinished(std::shared_ptr<const CriticOutcome> out) {
   outcome_ = out;
   if (!out->error.empty()) {
-    summary_->setText(QString::fromStdString(out->error));
+    summary_->setText(QString::fromStdString(out->error).toHtmlEscaped());
     return;
   }
   const critic::CriticCheck& c = out->check;
   QString text;
-  if (c.status != Status::Ok) text = QString::fromStdString(c.message) + "\n";
-  text += tr("estimate %1\ncertified bound %2  (exact W1 %3, gap %4)\nL_upper %5   max ‖∇f‖ grid %6, data %7\n"
-             "correlation with φ %8\n%9 steps in %10 s")
-              .arg(num(c.estimate), num(c.lowerBound), num(c.w1), num(c.w1 - c.lowerBound), num(c.lipschitzUpper),
-                   num(c.lipschitzGrid), num(c.lipschitzData))
-              .arg(c.potentialCorrelation, 0, 'f', 3)
-              .arg(c.steps)
-              .arg(c.seconds, 0, 'f', 2);
+  if (c.status != Status::Ok) text = QString::fromStdString(c.message).toHtmlEscaped() + "<br>";
+  // One quantity per row, the name left and the number right, so the eye compares columns.
+  auto row = [](const QString& name, const QString& value) {
+    return QStringLiteral("<tr><td>%1</td><td align=right>&nbsp;%2</td></tr>").arg(name, value);
+  };
+  text += "<table cellspacing=0 cellpadding=0>" + row(tr("estimate E_A f − E_B f"), num(c.estimate)) +
+          row(tr("certified bound"), num(c.lowerBound)) + row(tr("exact W1"), num(c.w1)) +
+          row(tr("gap W1 − bound"), num(c.w1 - c.lowerBound)) + row(tr("L_upper (layers)"), num(c.lipschitzUpper)) +
+          row(tr("max ‖∇f‖ grid · data"), num(c.lipschitzGrid) + " · " + num(c.lipschitzData)) +
+          row(tr("correlation with φ"), QString::number(c.potentialCorrelation, 'f', 3)) + "</table>" +
+          tr("%1 steps in %2 s").arg(c.steps).arg(c.seconds, 0, 'f', 2);
+  summary_->setTextFormat(Qt::RichText);
   summary_->setText(text);
   if (c.status == Status::Ok) showMaps(*out);
 }
