@@ -74,10 +74,14 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   lambda_->setToolTip(tr("Gradient penalty weight λ"));
   activation_ = new QComboBox;
   for (const char* a : {"relu", "leaky_relu", "tanh"}) activation_->addItem(a);
+  activation_->setToolTip(tr("Hidden-layer activation (all three are 1-Lipschitz, so the layer-norm bound holds)"));
 
   trainButton_ = new QPushButton(tr("Train"));
   stopButton_ = new QPushButton(tr("Stop"));
   stopButton_->setEnabled(false);
+  trainButton_->setToolTip(tr("Train the critic on A and B off the GUI thread, then set it beside the exact W1 and "
+                              "its potential"));
+  stopButton_->setToolTip(tr("Stop training; what was trained so far is shown"));
   progress_ = new QProgressBar;
   progress_->setRange(0, 1000);
   progress_->setTextVisible(false);

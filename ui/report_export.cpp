@@ -41,7 +41,7 @@ QString runJob(Job job, const std::atomic<bool>* cancel, QPromise<QString>& prom
     req.settings = s.sweep;
     req.settings.measures = s.selected;
     if (req.settings.measures.empty())
-      for (const Measure* m : MeasureRegistry::instance().all()) req.settings.measures.push_back(m->id());
+      for (const Measure* m : MeasureRegistry::instance().defaults()) req.settings.measures.push_back(m->id());
     req.params = s.params;
     const RunControl c = control(0.0, 0.8, "Sweeping");
     SweepResult r = runSweep(s.a, s.b, req, &c);

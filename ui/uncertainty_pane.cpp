@@ -93,7 +93,7 @@ UncertaintyPane::UncertaintyPane(SessionDocument* doc, MeasuresPanel* table, QWi
 
 std::vector<const Measure*> UncertaintyPane::runMeasures() {
   std::vector<const Measure*> out;
-  for (const Measure* m : MeasureRegistry::instance().all())
+  for (const Measure* m : MeasureRegistry::instance().defaults())
     if (m->id() != "entropic" && m->id() != "sinkhorn") out.push_back(m);
   return out;
 }

@@ -26,7 +26,7 @@ SweepRequest requestFromSession(const Session& s, const CliArgs& args, const std
   req.settings = s.sweep;
   req.settings.measures = !s.selected.empty() ? s.selected : s.sweep.measures;
   if (req.settings.measures.empty())
-    for (const Measure* m : MeasureRegistry::instance().all()) req.settings.measures.push_back(m->id());
+    for (const Measure* m : MeasureRegistry::instance().defaults()) req.settings.measures.push_back(m->id());
   for (const auto& id : req.settings.measures)
     if (!MeasureRegistry::instance().find(id)) throw InputError{file + ": measures: unknown measure '" + id + "'"};
   if (auto e = req.settings.validate()) throw InputError{file + ": sweep: " + *e};

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "critic/allocation_hint.h"
+#include "critic/input_frame.h"
 #include "critic/mlp_gradients.h"
 #include "critic/random_stream.h"
 #include "critic/weighted_sampler.h"
@@ -49,10 +50,12 @@ constexpr std::uint64_t kInitStream = 0x9e3779b97f4a7c15ull;
 constexpr std::uint64_t kSpectralStream = 0xbf58476d1ce4e5b9ull;
 constexpr std::uint64_t kBatchStream = 0x94d049bb133111ebull;
 
-CurvePoint checkpoint(int step, const MlpParams& net, const CriticSettings& s, const Cloud& a, const Cloud& b) {
+// net and the clouds in frame coordinates; the estimate is reported in the user's units.
+CurvePoint checkpoint(int step, const MlpParams& net, const CriticSettings& s, const Cloud& a, const Cloud& b,
+                      double scale) {
   CurvePoint c;
   c.step = step;
-  c.estimate = fullEstimate(net, s.shape.activation, a, b);
+  c.estimate = scale * fullEstimate(net, s.shape.activation, a, b);
   c.lipschitzUpper = lipschitzUpper(net);
   c.lowerBound = c.lipschitzUpper > 0 ? c.estimate / c.lipschitzUpper : 0.0;
   return c;
@@ -60,9 +63,12 @@ CurvePoint checkpoint(int step, const MlpParams& net, const CriticSettings& s, c
 
 }  // namespace
 
-TrainOutcome trainCritic(const Cloud& a, const Cloud& b, const CriticSettings& s, const RunControl* control,
+TrainOutcome trainCritic(const Cloud& userA, const Cloud& userB, const CriticSettings& s, const RunControl* control,
                          const TrainerState* warm, const std::function<void(const CurvePoint&)>& onCurve) {
   keepHeapWarm();
+  // Training sees the clouds in frame coordinates (input_frame.h); the state keeps g's weights.
+  const InputFrame frame = InputFrame::of(userA, userB);
+  const Cloud a = frame.toUnit(userA), b = frame.toUnit(userB);
   TrainOutcome out;
   TrainerState& st = out.state;
   if (warm && warm->fits(s)) {
@@ -90,7 +96,7 @@ TrainOutcome trainCritic(const Cloud& a, const Cloud& b, const CriticSettings& s
   };
   const int every = std::max(1, s.steps / std::max(1, s.curvePoints));
   auto record = [&](int step, const MlpParams& net) {
-    out.curve.push_back(checkpoint(step, net, s, a, b));
+    out.curve.push_back(checkpoint(step, net, s, a, b, frame.scale));
     if (onCurve) onCurve(out.curve.back());
   };
   if (s.method == Method::Clip && !(warm && warm->fits(s))) clipAll(st.raw, s.clip);
@@ -132,7 +138,9 @@ TrainOutcome trainCritic(const Cloud& a, const Cloud& b, const CriticSettings& s
       record(out.steps, current());
     }
   }
-  out.network = current();
+  out.frame = frame;
+  out.unitNetwork = current();
+  out.network = frame.fold(out.unitNetwork);
   if (control && !out.cancelled) control->shouldStop(1.0);
   return out;
 }

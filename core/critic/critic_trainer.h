@@ -1,5 +1,6 @@
 // Trains one critic f to maximise E_A f − E_B f on minibatches drawn from the two weighted
-// clouds, under one of the three Lipschitz rules (critic_settings.h). Single-threaded, so a
+// clouds, under one of the three Lipschitz rules (critic_settings.h), in the coordinates of the
+// clouds' input frame (input_frame.h). Single-threaded, so a
 // seed gives the same run bit for bit on the same build.
 #pragma once
 
@@ -9,6 +10,7 @@
 
 #include "cloud/cloud.h"
 #include "critic/critic_settings.h"
+#include "critic/input_frame.h"
 #include "critic/optimizers.h"
 #include "critic/spectral_norm.h"
 #include "base/run_control.h"
@@ -19,7 +21,7 @@ namespace barrow::critic {
 struct TrainerState {
   Method method = Method::Gp;
   MlpShape shape;
-  MlpParams raw;  // trained weights (before spectral normalisation for sn)
+  MlpParams raw;  // trained weights of g in frame coordinates (input_frame.h; before spectral normalisation for sn)
   OptimizerState optimizer;
   SpectralState spectral;
   long long stepsDone = 0;
@@ -38,7 +40,9 @@ struct CurvePoint {
 
 struct TrainOutcome {
   TrainerState state;
-  MlpParams network;  // the weights f uses (normalised for sn)
+  MlpParams network;      // f on the user's coordinates: g folded with the input frame (normalised for sn)
+  MlpParams unitNetwork;  // g itself, on frame coordinates (for sn: the layers of spectral norm ≈ 1)
+  InputFrame frame;
   std::vector<CurvePoint> curve;
   int steps = 0;      // updates done in this run
   bool cancelled = false;

@@ -75,6 +75,7 @@ CriticCheck checkCritic(const Cloud& a, const Cloud& b, const ExactReference& re
   c.steps = t.steps;
   c.curve = std::move(t.curve);
   c.network = std::move(t.network);
+  c.unitNetwork = std::move(t.unitNetwork);
   c.state = std::move(t.state);
   if (t.cancelled) {
     c.status = Status::Cancelled;

@@ -35,7 +35,8 @@ struct CriticCheck {
   int steps = 0;
   double seconds = 0.0;  // training and measuring, not the exact solve
   std::vector<CurvePoint> curve;
-  MlpParams network;
+  MlpParams network;      // f on the user's coordinates
+  MlpParams unitNetwork;  // g on the input frame's coordinates (critic_trainer.h)
   TrainerState state;  // for a warm start
 };
 

@@ -62,5 +62,30 @@ TEST(CriticMeasureTest, WarmStartCarriesWeightsOnlyWhenSettingsMatch) {
   EXPECT_EQ(third.value, evaluateMeasure(m, a, b, cold).value);  // [D] fresh start = cold run
 }
 
+// [D] Critics train on the input frame's coordinates (core/critic/input_frame.h), so moving both
+// clouds leaves every critic's value unchanged and scaling them by k multiplies it by k, as for
+// W1 (translation and homogeneity of the metric). A factor of 4 is exact in binary, and the
+// frame removes it again before training; the shift costs rounding of order 1e-16·|shift|/s
+// in the inputs, which the training run carries along without amplifying it noticeably.
+TEST(CriticMeasureTest, CriticsMoveAndScaleWithTheCloudsLikeW1) {
+  const Cloud a = test::gaussianCloud(40, 7), b = test::gaussianCloud(35, 8, 1.2);
+  auto moved = [](Cloud c, double k, double dx, double dy) {
+    c.points *= k;
+    c.points.col(0).array() += dx;
+    c.points.col(1).array() += dy;
+    return c;
+  };
+  for (const char* id : {"critic_clip", "critic_gp", "critic_sn"}) {
+    const Measure& m = *MeasureRegistry::instance().find(id);
+    const double base = evaluateMeasure(m, a, b, shortRun(150)).value;
+    const double scaled = evaluateMeasure(m, moved(a, 4.0, 0, 0), moved(b, 4.0, 0, 0), shortRun(150)).value;
+    EXPECT_NEAR(scaled, 4.0 * base, 1e-12 * std::abs(base)) << id;
+    for (double shift : {3.7, 1e6}) {
+      const double far = evaluateMeasure(m, moved(a, 1.0, shift, -shift), moved(b, 1.0, shift, -shift), shortRun(150)).value;
+      EXPECT_NEAR(far, base, 1e-6 * std::abs(base)) << id << " shifted by " << shift;
+    }
+  }
+}
+
 }  // namespace
 }  // namespace barrow
