@@ -374,6 +374,7 @@ void SweepPlots::rebuild() {
     sy->setRange(robustRange(allSlopes));
   }
   sx->setRange(vx->range());
+  placeLegend();
   fitLegend();
   plot_->replot(QCustomPlot::rpQueuedReplot);
 }
@@ -414,6 +415,24 @@ void SweepPlots::onPress(QMouseEvent* e) {
 void SweepPlots::onMove(QMouseEvent* e) {
   if (!dragging_ || !(e->buttons() & Qt::LeftButton)) return;
   placeCursor(values_->axis(QCPAxis::atBottom)->pixelToCoord(e->position().x()), true);
+}
+
+// An empty legend would cap the height of the row it shares with the value pane (a layout
+// row is no taller than its elements allow, and an empty legend allows only its margins):
+// the value pane then collapses before the first curve arrives. It leaves the layout then.
+void SweepPlots::placeLegend() {
+  QCPLegend* legend = plot_->legend;
+  QCPLayoutGrid* grid = plot_->plotLayout();
+  const bool want = legend->itemCount() > 0;
+  const bool placed = grid->hasElement(0, 1) && grid->element(0, 1) == legend;
+  if (want && !placed) {
+    grid->addElement(0, 1, legend);
+    grid->setColumnStretchFactor(1, 0.001);
+  } else if (!want && placed) {
+    grid->take(legend);
+    grid->simplify();
+  }
+  legend->setVisible(want);
 }
 
 // Fifteen legend rows do not fit beside a short value pane: they would be drawn over each

@@ -66,6 +66,7 @@ class SweepPlots : public QWidget {
  private:
   void rebuild();
   void fitLegend();
+  void placeLegend();
   void onPress(QMouseEvent* e);
   void onMove(QMouseEvent* e);
   void placeCursor(double theta, bool notify);
