@@ -338,8 +338,11 @@ void FieldView::applyView() {
   // free of points, so that it never covers one.
   int legendBand = 0;
   if (plot_->legend->visible()) {
-    const int h = plot_->legend->outerRect().height();
-    legendBand = std::min(r.height() / 3, (h > 0 ? h : plot_->legend->minimumOuterSizeHint().height()) + 6);
+    // From the top of the plot area to the legend's lower edge (inset margin included), and
+    // half a marker more so that no marker touches it.
+    const QRect l = plot_->legend->outerRect();
+    const int h = l.height() > 0 ? l.bottom() - r.top() : plot_->legend->minimumOuterSizeHint().height() + 12;
+    legendBand = std::min(r.height() / 3, h + 8);
   }
   const int usable = r.height() - legendBand;
   // Widen whichever axis needs it so that one unit has the same length on both.
