@@ -3,6 +3,7 @@
 #include <QHeaderView>
 #include <QLabel>
 #include <QTableWidget>
+#include <QTimer>
 #include <QVBoxLayout>
 
 #include "measure_style.h"
@@ -125,6 +126,12 @@ void FindingsPanel::updateStale() {
           item->setToolTip(stale ? tr("Out of date: the clouds or settings changed since this sweep. ") + item->text()
                                  : item->text());
       }
+}
+
+// The words' column stretches with the pane; its rows follow once the table has its new width.
+void FindingsPanel::resizeEvent(QResizeEvent* e) {
+  QWidget::resizeEvent(e);
+  QTimer::singleShot(0, table_, &QTableWidget::resizeRowsToContents);
 }
 
 void FindingsPanel::selectMeasure(const std::string& id) {

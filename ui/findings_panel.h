@@ -32,6 +32,9 @@ class FindingsPanel : public QWidget {
  signals:
   void measureFocused(const QString& id);
 
+ protected:
+  void resizeEvent(QResizeEvent* e) override;
+
  private:
   void updateStale();
 

@@ -162,3 +162,43 @@ TEST(WindowCurrentTest, SweepPlotKeepsItsPanesWhileASweepRuns) {
 
 }  // namespace
 }  // namespace barrow::ui
+
+#include <QDockWidget>
+#include <QHeaderView>
+#include <QTableWidget>
+
+namespace barrow::ui {
+namespace {
+
+// Every Findings row is tall enough for its words wrapped at the column's width, also after
+// the pane is narrowed (rows follow the column width).
+TEST(WindowCurrentTest, FindingsRowsShowTheirWholeText) {
+  auto w = test::makeWindow(smallSweep());
+  w->resize(1000, 700);
+  w->sweep()->run();
+  ASSERT_TRUE(test::waitIdle(*w));
+  QTableWidget* t = w->findings()->table();
+  auto check = [&] {
+    const int col = t->columnWidth(2);
+    const QFontMetrics fm(t->font());
+    for (int r = 0; r < t->rowCount(); ++r) {
+      const QString text = t->item(r, 2)->text();
+      const QRect need = fm.boundingRect(QRect(0, 0, col - 8, 100000), Qt::TextWordWrap, text);
+      EXPECT_GE(t->rowHeight(r), need.height()) << "row " << r << " cut: " << text.toStdString();
+    }
+  };
+  {
+    SCOPED_TRACE("as laid out");
+    check();
+  }
+  // The pane narrowed: the words' column with it.
+  auto* dock = w->findChild<QDockWidget*>("findingsDock");
+  ASSERT_NE(dock, nullptr);
+  w->resizeDocks({dock}, {dock->width() - 120}, Qt::Horizontal);
+  QTest::qWait(100);
+  SCOPED_TRACE("narrowed");
+  check();
+}
+
+}  // namespace
+}  // namespace barrow::ui
