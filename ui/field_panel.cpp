@@ -68,8 +68,18 @@ QWidget* FieldPanel::buildToolRow() {
   target_ = new QComboBox(w);
   target_->addItems({tr("into A"), tr("into B")});
   target_->setToolTip(tr("The cloud that Add, Spray and Generate put points into"));
-  connect(target_, &QComboBox::currentIndexChanged, this,
-          [this](int i) { editor_->setTarget(i == 0 ? Which::A : Which::B); });
+  target_->setObjectName("fieldTarget");
+  tools_[1]->setObjectName("addTool");
+  tools_[2]->setObjectName("sprayTool");
+  // The tooltips of Add and Spray name the cloud the target box has chosen.
+  auto retarget = [this](int i) {
+    const QString side = i == 0 ? "A" : "B";
+    editor_->setTarget(i == 0 ? Which::A : Which::B);
+    tools_[1]->setToolTip(tr("Click to add one point to cloud %1 (N); the box beside chooses the cloud").arg(side));
+    tools_[2]->setToolTip(tr("Press and move to spray points into cloud %1 (B); the box beside chooses the cloud").arg(side));
+  };
+  connect(target_, &QComboBox::currentIndexChanged, this, retarget);
+  retarget(target_->currentIndex());
   radius_ = new QDoubleSpinBox(w);
   radius_->setRange(0.001, 1e4);
   radius_->setDecimals(3);

@@ -99,6 +99,7 @@ void FieldView::setClouds(const Cloud& a, const Cloud& b) {
     fitToData();
   }
   rebuildInterpolation();
+  if (hoverIndex_ >= 0) readout_->setText(describePoint(hoverWhich_, hoverIndex_));
   refresh();
 }
 
@@ -258,6 +259,8 @@ void FieldView::setSelection(const std::vector<bool>& selA, const std::vector<bo
 }
 
 void FieldView::setHover(Which w, int index) {
+  hoverWhich_ = w;
+  hoverIndex_ = index;
   cloudA_->setHighlighted(w == Which::A ? index : -1);
   cloudB_->setHighlighted(w == Which::B ? index : -1);
   exact_->setHighlight(w == Which::A, index);
@@ -331,10 +334,23 @@ void FieldView::applyView() {
   const double pad = 0.08 * std::max({xr.size(), yr.size(), 1e-6});
   xr = QCPRange(xr.lower - pad, xr.upper + pad);
   yr = QCPRange(yr.lower - pad, yr.upper + pad);
+  // The legend sits in the top-left corner: a band of its height along the top is kept
+  // free of points, so that it never covers one.
+  int legendBand = 0;
+  if (plot_->legend->visible()) {
+    // From the top of the plot area to the legend's lower edge (inset margin included), and
+    // half a marker more so that no marker touches it.
+    const QRect l = plot_->legend->outerRect();
+    const int h = l.height() > 0 ? l.bottom() - r.top() : plot_->legend->minimumOuterSizeHint().height() + 12;
+    legendBand = std::min(r.height() / 3, h + 8);
+  }
+  const int usable = r.height() - legendBand;
   // Widen whichever axis needs it so that one unit has the same length on both.
-  const double ux = xr.size() / r.width(), uy = yr.size() / r.height();
-  if (ux > uy) yr = QCPRange(yr.center() - ux * r.height() / 2, yr.center() + ux * r.height() / 2);
+  const double ux = xr.size() / r.width(), uy = yr.size() / usable;
+  const double unit = std::max(ux, uy);
+  if (ux > uy) yr = QCPRange(yr.center() - ux * usable / 2, yr.center() + ux * usable / 2);
   else xr = QCPRange(xr.center() - uy * r.width() / 2, xr.center() + uy * r.width() / 2);
+  yr.upper += unit * legendBand;
   plot_->xAxis->setRange(xr);
   plot_->yAxis->setRange(yr);
 }

@@ -100,6 +100,9 @@ class FieldView : public QWidget {
   bool everFitted_ = false;
   bool fitPending_ = true;
   bool userView_ = false;
+  // The hovered point: its read-out follows it while it is dragged.
+  Which hoverWhich_ = Which::A;
+  int hoverIndex_ = -1;
 };
 
 }  // namespace barrow::ui

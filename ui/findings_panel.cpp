@@ -1,17 +1,30 @@
 #include "findings_panel.h"
 
 #include <QHeaderView>
+#include <QLabel>
 #include <QTableWidget>
+#include <QTimer>
 #include <QVBoxLayout>
 
 #include "measure_style.h"
 #include "measures/registry.h"
+#include "session_document.h"
 
 namespace barrow::ui {
 
-FindingsPanel::FindingsPanel(QWidget* parent) : QWidget(parent), table_(new QTableWidget(this)) {
+FindingsPanel::FindingsPanel(SessionDocument* doc, QWidget* parent)
+    : QWidget(parent), doc_(doc), table_(new QTableWidget(this)), notice_(new QLabel(this)) {
   auto* layout = new QVBoxLayout(this);
   layout->setContentsMargins(2, 2, 2, 2);
+  layout->setSpacing(2);
+  notice_->setObjectName("findingsStaleNotice");
+  notice_->setWordWrap(true);
+  notice_->setText(tr("Out of date: the clouds or settings changed since this sweep. Run it again (Ctrl+R) "
+                      "for findings that match."));
+  notice_->setToolTip(tr("The verdicts below were found for the session as it was when the sweep ran"));
+  notice_->setStyleSheet("QLabel { background: #fff1d6; color: #6b3a00; padding: 3px; border-radius: 3px; }");
+  notice_->setVisible(false);
+  layout->addWidget(notice_);
   layout->addWidget(table_);
   table_->setObjectName("findingsTable");
   table_->setColumnCount(3);
@@ -38,10 +51,16 @@ FindingsPanel::FindingsPanel(QWidget* parent) : QWidget(parent), table_(new QTab
     }
     emit measureFocused(table_->item(rows.first().row(), 0)->data(Qt::UserRole).toString());
   });
+  // Wrapped rows keep their whole text when the pane is narrowed or widened.
+  connect(table_->horizontalHeader(), &QHeaderView::sectionResized, table_, &QTableWidget::resizeRowsToContents);
+  connect(doc_, &SessionDocument::revisionChanged, this, &FindingsPanel::updateStale);
   clear(tr("Findings appear here after a sweep."));
 }
 
 void FindingsPanel::clear(const QString& hint) {
+  hasFindings_ = false;
+  stale_ = false;
+  notice_->setVisible(false);
   table_->clearContents();
   table_->setRowCount(hint.isEmpty() ? 0 : 1);
   if (!hint.isEmpty()) {
@@ -49,9 +68,10 @@ void FindingsPanel::clear(const QString& hint) {
     item->setFlags(Qt::ItemIsEnabled);
     table_->setItem(0, 2, item);
   }
+  table_->resizeRowsToContents();
 }
 
-void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
+void FindingsPanel::setFindings(const std::vector<Finding>& findings, quint64 revision) {
   const QSignalBlocker block(table_);
   table_->clearContents();
   table_->setRowCount(int(findings.size()));
@@ -70,6 +90,7 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
     if (!f.flat.empty() && !f.infiniteEverywhere) verdict += tr(", flat");
     auto* v = new QTableWidgetItem(verdict);
     v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
+    v->setData(Qt::UserRole + 2, v->foreground());
     v->setToolTip(tr("Lipschitz estimate %1").arg(f.lipschitz, 0, 'g', 3));
     auto* words = new QTableWidgetItem(QString::fromStdString(f.summary));
     words->setToolTip(QString::fromStdString(f.summary));
@@ -78,12 +99,18 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings) {
     table_->setItem(r, 2, words);
   }
   table_->resizeRowsToContents();
+  hasFindings_ = true;
+  revision_ = revision;
   stale_ = false;
+  notice_->setVisible(false);
+  updateStale();
 }
 
-void FindingsPanel::setStale(bool stale) {
-  if (stale == stale_ || table_->rowCount() == 0) return;
+void FindingsPanel::updateStale() {
+  const bool stale = hasFindings_ && !doc_->isCurrent(revision_);
+  if (stale == stale_) return;
   stale_ = stale;
+  notice_->setVisible(stale);
   // Greyed, with the reason in every row's tooltip: these verdicts belong to other clouds.
   for (int r = 0; r < table_->rowCount(); ++r)
     for (int c = 0; c < table_->columnCount(); ++c)
@@ -92,11 +119,19 @@ void FindingsPanel::setStale(bool stale) {
         QFont f = item->font();
         f.setItalic(stale);
         item->setFont(f);
-        item->setForeground(stale ? QColor(130, 130, 130) : QColor(Qt::black));
+        // Back to the row's own colour (the verdict's, else the table's) when current again.
+        if (stale) item->setForeground(QColor(130, 130, 130));
+        else item->setData(Qt::ForegroundRole, item->data(Qt::UserRole + 2));
         if (c == 2)
           item->setToolTip(stale ? tr("Out of date: the clouds or settings changed since this sweep. ") + item->text()
                                  : item->text());
       }
+}
+
+// The words' column stretches with the pane; its rows follow once the table has its new width.
+void FindingsPanel::resizeEvent(QResizeEvent* e) {
+  QWidget::resizeEvent(e);
+  QTimer::singleShot(0, table_, &QTableWidget::resizeRowsToContents);
 }
 
 void FindingsPanel::selectMeasure(const std::string& id) {

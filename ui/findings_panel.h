@@ -8,27 +8,41 @@
 
 #include "sweep/findings.h"
 
+class QLabel;
 class QTableWidget;
 
 namespace barrow::ui {
 
+class SessionDocument;
+
 class FindingsPanel : public QWidget {
   Q_OBJECT
  public:
-  explicit FindingsPanel(QWidget* parent = nullptr);
-  void setFindings(const std::vector<Finding>& findings);
+  explicit FindingsPanel(SessionDocument* doc, QWidget* parent = nullptr);
+  /// Findings of a sweep computed at session revision `revision`: greyed under a notice
+  /// whenever the document is at another revision.
+  void setFindings(const std::vector<Finding>& findings, quint64 revision);
   void clear(const QString& hint);
   QTableWidget* table() const { return table_; }
   void selectMeasure(const std::string& id);
-  /// Marks the rows as belonging to clouds or settings that have changed since (greyed).
-  void setStale(bool stale);
+  /// True while the rows belong to clouds or settings that have changed since (greyed, notice shown).
   bool stale() const { return stale_; }
+  QLabel* staleNotice() const { return notice_; }
 
  signals:
   void measureFocused(const QString& id);
 
+ protected:
+  void resizeEvent(QResizeEvent* e) override;
+
  private:
+  void updateStale();
+
+  SessionDocument* doc_;
   QTableWidget* table_;
+  QLabel* notice_;
+  quint64 revision_ = 0;
+  bool hasFindings_ = false;
   bool stale_ = false;
 };
 

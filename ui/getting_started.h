@@ -4,12 +4,18 @@
 
 #include <QFrame>
 
+class QLabel;
+
 namespace barrow::ui {
 
 class GettingStarted : public QFrame {
   Q_OBJECT
  public:
   explicit GettingStarted(QWidget* parent);
+  /// Whether the demo is what the window shows: the guide describes it only then, and speaks
+  /// of "your clouds" otherwise.
+  void setDemoShown(bool demo);
+  QString text() const;
 
  signals:
   void dismissed();
@@ -19,6 +25,7 @@ class GettingStarted : public QFrame {
 
  private:
   void place();
+  QLabel* text_;
 };
 
 }  // namespace barrow::ui

@@ -30,6 +30,7 @@
 #include "measures_panel.h"
 #include "sweep/sweep_merge.h"
 #include "report_export.h"
+#include "scenario/demo_scenario.h"
 #include "scenario/generators.h"
 #include "session_files.h"
 #include "sweep_panel.h"
@@ -105,7 +106,6 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   connect(sweep_, &SweepPanel::message, this, &MainWindow::status);
   connect(sweep_, &SweepPanel::thetaChanged, this, &MainWindow::setTheta);
   connect(sweep_, &SweepPanel::runningChanged, this, &MainWindow::checkIdle);
-  connect(sweep_, &SweepPanel::staleChanged, findings_, &FindingsPanel::setStale);
   connect(uncertainty_, &UncertaintyPane::runningChanged, this, &MainWindow::checkIdle);
   connect(sweep_, &SweepPanel::outcomeReady, this, [this] {
     if (!sweep_->error().empty())
@@ -113,7 +113,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
     else if (sweep_->parts().empty() && sweep_->cancelled())
       findings_->clear(tr("The sweep was cancelled."));
     else
-      findings_->setFindings(sweep_->findings());
+      findings_->setFindings(sweep_->findings(), sweep_->resultsRevision());
     findings_->selectMeasure(sweep_->plots()->highlighted());
   });
   auto focus = [this](const QString& id) { focusMeasure(id.toStdString()); };
@@ -138,7 +138,7 @@ MainWindow::~MainWindow() = default;
 void MainWindow::buildDocks() {
   measures_ = new MeasuresPanel(doc_, MeasureRegistry::instance().defaults(), this);
   sweep_ = new SweepPanel(doc_, this);
-  findings_ = new FindingsPanel(this);
+  findings_ = new FindingsPanel(doc_, this);
   uncertainty_ = new UncertaintyPane(doc_, measures_, this);
   auto dock = [this](QWidget* w, const QString& title, const char* name, Qt::DockWidgetArea area) {
     auto* d = new QDockWidget(title, this);
@@ -194,12 +194,17 @@ void MainWindow::buildMenus() {
   };
   add(file, tr("&New session"), QKeySequence::New, tr("Start a new session with two example blobs"),
       [this] { newSession(); }, this);
-  add(file, tr("&Open…"), QKeySequence::Open, tr("Open a session, or a cloud file as A"), [this] { openDialog(); }, this);
+  add(file, tr("&Open…"), QKeySequence::Open, tr("Open a session, or a cloud file as A or B"), [this] { openDialog(); }, this);
   recentMenu_ = file->addMenu(tr("Open &recent"));
   connect(files_, &SessionFiles::recentChanged, this, &MainWindow::rebuildRecentMenu);
   rebuildRecentMenu();
   add(file, tr("&Save"), QKeySequence::Save, tr("Save the session"), [this] { save(); }, this);
-  add(file, tr("Save &as…"), QKeySequence::SaveAs, tr("Save the session under a new name"), [this] { saveAsDialog(); }, this);
+  // Some platforms define no Save As key; Ctrl+Shift+S is the common one there.
+  const QKeySequence saveAsKey = QKeySequence::keyBindings(QKeySequence::SaveAs).isEmpty()
+                                     ? QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_S)
+                                     : QKeySequence(QKeySequence::SaveAs);
+  add(file, tr("Save &as…"), saveAsKey, tr("Save the session under a new name"), [this] { saveAsDialog(); }, this)
+      ->setObjectName("saveAsAction");
   file->addSeparator();
   add(file, tr("&Import cloud into A…"), QKeySequence("Ctrl+I"), tr("Replace A by a CSV or .npy file"),
       [this] { importDialog(Which::A); }, this);
@@ -213,14 +218,12 @@ void MainWindow::buildMenus() {
   add(file, tr("Export sweep figure…"), {}, tr("PNG, SVG or PDF of the measures and their slopes against θ"),
       [this] { exportFigureDialog(1); }, this);
   add(file, tr("Export sweep data (CSV)…"), {}, tr("theta, each measure, then each dD/dθ"), [this] {
-    const std::string csv = sweep_->toCsv();
-    if (csv.empty()) return status(tr("Run a sweep first."));
-    exportTextDialog(tr("Export sweep data"), "sweep.csv", csv);
+    if (const QString why = sweepExportProblem(); !why.isEmpty()) return reportError(tr("Cannot export"), why);
+    exportTextDialog(tr("Export sweep data"), "sweep.csv", sweep_->toCsv());
   }, this);
   add(file, tr("Export findings (JSON)…"), {}, tr("Jumps, flat stretches and slopes per measure, as barrow-cli findings --json"), [this] {
-    const std::string json = sweep_->findingsJson();
-    if (json.empty()) return status(tr("Run a sweep first."));
-    exportTextDialog(tr("Export findings"), "findings.json", json);
+    if (const QString why = sweepExportProblem(); !why.isEmpty()) return reportError(tr("Cannot export"), why);
+    exportTextDialog(tr("Export findings"), "findings.json", sweep_->findingsJson());
   }, this);
   add(file, tr("Export plan (CSV)…"), {}, tr("The exact plan: i, j, mass, both endpoints and the cost, as barrow-cli plan"), [this] {
     const std::string csv = planCsv();
@@ -394,14 +397,19 @@ std::optional<Which> MainWindow::askSide(const QString& path) {
 QString MainWindow::importAsked(const QString& path) {
   const std::optional<Which> target = askSide(path);
   if (!target) return tr("cancelled");
-  const QString e = files_->importCloud(path, *target);
+  return importInto(path, *target);
+}
+
+// Every import (menu, Open, drop) ends the same way: the Field shows both clouds whole.
+QString MainWindow::importInto(const QString& path, Which w) {
+  const QString e = files_->importCloud(path, w);
   if (!e.isEmpty()) {
     reportError(tr("Cannot import"), e);
     return e;
   }
   files_->addRecent(path);
   field_->view()->fitToData();
-  status(tr("Imported %1 as %2").arg(QFileInfo(path).fileName(), *target == Which::A ? "A" : "B"));
+  status(tr("Imported %1 as %2").arg(QFileInfo(path).fileName(), w == Which::A ? "A" : "B"));
   return {};
 }
 
@@ -496,7 +504,9 @@ void MainWindow::reportError(const QString& title, const QString& text) {
 void MainWindow::status(const QString& text) { statusBar()->showMessage(text, 8000); }
 
 bool MainWindow::confirmDiscard() {
-  if (!doc_->isModified() || options_.quiet) return true;
+  if (!doc_->isModified()) return true;
+  if (prompts_.discard) return prompts_.discard();
+  if (options_.quiet) return true;
   const auto answer = QMessageBox::question(
       this, tr("Unsaved changes"), tr("The session has unsaved changes. Save them first?"),
       QMessageBox::Save | QMessageBox::Discard | QMessageBox::Cancel, QMessageBox::Save);
@@ -515,6 +525,27 @@ void MainWindow::restoreLayout() {
   if (options_.screenshot) return;  // screenshots use the default layout
   restoreGeometry(s.value("ui/geometry").toByteArray());
   layoutRestored_ = restoreState(s.value("ui/state").toByteArray());
+  layoutTimer_.setSingleShot(true);
+  layoutTimer_.setInterval(600);
+  connect(&layoutTimer_, &QTimer::timeout, this, &MainWindow::saveLayout);
+}
+
+void MainWindow::saveLayout() {
+  if (options_.screenshot) return;
+  QSettings s;
+  s.setValue("ui/geometry", saveGeometry());
+  s.setValue("ui/state", saveState());
+}
+
+// Kept as it changes, not only on a clean exit: after a crash the window comes back as it was.
+void MainWindow::resizeEvent(QResizeEvent* e) {
+  QMainWindow::resizeEvent(e);
+  if (!options_.screenshot && isVisible()) layoutTimer_.start();
+}
+
+void MainWindow::moveEvent(QMoveEvent* e) {
+  QMainWindow::moveEvent(e);
+  if (!options_.screenshot && isVisible()) layoutTimer_.start();
 }
 
 void MainWindow::closeEvent(QCloseEvent* e) {
@@ -523,11 +554,8 @@ void MainWindow::closeEvent(QCloseEvent* e) {
     return;
   }
   sweep_->cancel();
-  if (!options_.screenshot) {
-    QSettings s;
-    s.setValue("ui/geometry", saveGeometry());
-    s.setValue("ui/state", saveState());
-  }
+  layoutTimer_.stop();
+  saveLayout();
   files_->discardRecovery();  // a clean exit leaves nothing to recover
   e->accept();
 }
@@ -559,6 +587,8 @@ void MainWindow::offerRecovery() {
 void MainWindow::showGettingStarted() {
   if (options_.screenshot) return;
   if (!guide_) guide_ = new GettingStarted(this);
+  const Session demo = demoSession();
+  guide_->setDemoShown(sessionCloudsEqual(session().a, demo.a) && sessionCloudsEqual(session().b, demo.b));
   guide_->show();
   guide_->raise();
 }
@@ -584,13 +614,16 @@ void MainWindow::newSession() {
 }
 
 void MainWindow::openDialog() {
-  const QString p = QFileDialog::getOpenFileName(this, tr("Open session or cloud"),
-                                                 QSettings().value("files/lastDir").toString(),
-                                                 "Sessions and clouds (*.json *.barrow *.csv *.txt *.tsv *.npy);;" +
-                                                     QString(kSessionFilter) + ";;" + kCloudFilter);
+  // Unsaved work is settled before the chooser, so the question is not a surprise after it.
+  if (!confirmDiscard()) return;
+  const QString p = prompts_.openPath
+                        ? prompts_.openPath()
+                        : QFileDialog::getOpenFileName(this, tr("Open session or cloud"),
+                                                       QSettings().value("files/lastDir").toString(),
+                                                       "Sessions and clouds (*.json *.barrow *.csv *.txt *.tsv *.npy);;" +
+                                                           QString(kSessionFilter) + ";;" + kCloudFilter);
   if (p.isEmpty()) return;
   QSettings().setValue("files/lastDir", QFileInfo(p).absolutePath());
-  if (SessionFiles::isSessionFile(p) && !confirmDiscard()) return;
   openFile(p);
 }
 
@@ -600,8 +633,9 @@ bool MainWindow::save() {
 }
 
 bool MainWindow::saveAsDialog() {
-  QString p = QFileDialog::getSaveFileName(this, tr("Save session"), QSettings().value("files/lastDir").toString(),
-                                           kSessionFilter);
+  QString p = QFileDialog::getSaveFileName(
+      this, tr("Save session"),
+      doc_->path().isEmpty() ? suggestedPath(tr("session"), "json") : doc_->path(), kSessionFilter);
   if (p.isEmpty()) return false;
   if (QFileInfo(p).suffix().isEmpty()) p += ".json";
   QSettings().setValue("files/lastDir", QFileInfo(p).absolutePath());
@@ -613,13 +647,12 @@ void MainWindow::importDialog(Which w) {
                                                  QSettings().value("files/lastDir").toString(), kCloudFilter);
   if (p.isEmpty()) return;
   QSettings().setValue("files/lastDir", QFileInfo(p).absolutePath());
-  const QString e = files_->importCloud(p, w);
-  if (!e.isEmpty()) reportError(tr("Cannot import"), e);
+  importInto(p, w);
 }
 
 void MainWindow::exportCloudDialog(Which w) {
   const QString p = QFileDialog::getSaveFileName(this, w == Which::A ? tr("Export cloud A") : tr("Export cloud B"),
-                                                 QSettings().value("files/lastDir").toString(),
+                                                 suggestedPath(w == Which::A ? "A" : "B", "csv"),
                                                  "CSV (*.csv);;NumPy (*.npy)");
   if (p.isEmpty()) return;
   const QString e = files_->exportCloud(p, w);
@@ -628,21 +661,52 @@ void MainWindow::exportCloudDialog(Which w) {
 }
 
 void MainWindow::exportFigureDialog(int which) {
+  if (which == 1)
+    if (const QString why = sweepExportProblem(); !why.isEmpty()) return reportError(tr("Cannot export"), why);
   QCustomPlot* plot = which == 0 ? field_->view()->plot() : sweep_->plots()->plot();
   ExportSizeDialog size(QSize(std::max(400, plot->width()), std::max(300, plot->height())), this);
   if (size.exec() != QDialog::Accepted) return;
-  const QString p = QFileDialog::getSaveFileName(this, tr("Export figure"), QSettings().value("files/lastDir").toString(),
+  const QString p = QFileDialog::getSaveFileName(this, tr("Export figure"),
+                                                 suggestedPath(which == 0 ? tr("field") : tr("sweep"), "png"),
                                                  "PNG (*.png);;SVG (*.svg);;PDF (*.pdf)");
   if (p.isEmpty()) return;
-  const QString e = exportPlot(plot, p, size.size().width(), size.size().height());
+  QSettings().setValue("files/lastDir", QFileInfo(p).absolutePath());
+  exportFigure(which, p, size.size());
+}
+
+QString MainWindow::exportFigure(int which, const QString& path, const QSize& size) {
+  if (which == 1)
+    if (const QString why = sweepExportProblem(); !why.isEmpty()) {
+      reportError(tr("Cannot export"), why);
+      return why;
+    }
+  QCustomPlot* plot = which == 0 ? field_->view()->plot() : sweep_->plots()->plot();
+  const QString e = exportPlot(plot, path, size.width(), size.height());
   if (!e.isEmpty()) reportError(tr("Cannot export"), e);
-  else status(tr("Wrote %1").arg(p));
+  else status(tr("Wrote %1").arg(path));
+  return e;
+}
+
+QString MainWindow::sweepExportProblem() const {
+  if (sweep_->running()) return tr("The sweep is still running: export it when it has finished.");
+  if (sweep_->parts().empty()) return tr("Run a sweep first.");
+  if (!sweep_->resultsCurrent())
+    return tr("The sweep is out of date: the clouds or settings changed since it ran. Run it again (Ctrl+R) "
+              "and export the new one.");
+  return {};
+}
+
+QString MainWindow::suggestedPath(const QString& stem, const QString& suffix) const {
+  const QString dir = QSettings().value("files/lastDir").toString();
+  const QString base = doc_->path().isEmpty() ? QString() : QFileInfo(doc_->path()).completeBaseName();
+  const QString name = (base.isEmpty() || base == stem ? stem : base + "-" + stem) + "." + suffix;
+  return dir.isEmpty() ? name : dir + "/" + name;
 }
 
 void MainWindow::exportTextDialog(const QString& title, const QString& defaultName, const std::string& text) {
-  const QString dir = QSettings().value("files/lastDir").toString();
   const QString filter = defaultName.endsWith(".json") ? "JSON (*.json)" : "CSV (*.csv)";
-  const QString p = QFileDialog::getSaveFileName(this, title, dir.isEmpty() ? defaultName : dir + "/" + defaultName,
+  const QFileInfo name(defaultName);
+  const QString p = QFileDialog::getSaveFileName(this, title, suggestedPath(name.completeBaseName(), name.suffix()),
                                                  filter);
   if (p.isEmpty()) return;
   const QString e = SessionFiles::writeText(p, text);
@@ -651,8 +715,7 @@ void MainWindow::exportTextDialog(const QString& title, const QString& defaultNa
 }
 
 void MainWindow::exportReportDialog() {
-  const QString dir = QSettings().value("files/lastDir").toString();
-  const QString p = QFileDialog::getSaveFileName(this, tr("Export report"), dir.isEmpty() ? "report.html" : dir + "/report.html",
+  const QString p = QFileDialog::getSaveFileName(this, tr("Export report"), suggestedPath(tr("report"), "html"),
                                                  tr("HTML report (*.html)"));
   if (!p.isEmpty()) exportReport(p);
 }
@@ -661,7 +724,7 @@ void MainWindow::exportReport(const QString& path) {
   // The window's sweep when it matches the session (finished, not stale); else the export runs one.
   std::optional<SweepResult> current;
   std::vector<Finding> findings;
-  if (!sweep_->parts().empty() && !sweep_->plots()->stale() && !sweep_->cancelled() && !sweep_->running()) {
+  if (!sweep_->parts().empty() && sweep_->resultsCurrent() && !sweep_->cancelled() && !sweep_->running()) {
     std::vector<SweepResult> passes;
     for (const auto& part : sweep_->parts()) passes.push_back(part.result);
     current = mergeSweeps(passes);

@@ -56,6 +56,23 @@ class MainWindow : public QMainWindow {
   QString dropFile(const QString& path);
   /// Replaces the "A or B?" question for dropped clouds (tests); nullopt cancels.
   void setDropChooser(std::function<std::optional<Which>(const QString&)> chooser) { dropChooser_ = std::move(chooser); }
+  /// Replaces the modal questions of File → Open (tests): the file chooser (empty: cancelled)
+  /// and the unsaved-changes question (false: cancelled).
+  struct Prompts {
+    std::function<QString()> openPath;
+    std::function<bool()> discard;
+  };
+  void setPrompts(Prompts p) { prompts_ = std::move(p); }
+  /// File → Open as the menu runs it: the unsaved-changes question first, then the chooser.
+  void openDialog();
+
+  /// Why the sweep cannot be exported as it stands ("" when it can): none yet, still running,
+  /// or computed at another session revision than the current one.
+  QString sweepExportProblem() const;
+  /// Writes the Field (0) or Sweep (1) figure; the sweep only when sweepExportProblem() is "".
+  QString exportFigure(int which, const QString& path, const QSize& size);
+  /// The file name an export dialog offers: last folder, the session's name and `stem`.
+  QString suggestedPath(const QString& stem, const QString& suffix) const;
 
   /// The GUI state kept in a session's "view": overlays, θ cursor, highlighted measure.
   nlohmann::json viewOptions() const;
@@ -98,10 +115,14 @@ class MainWindow : public QMainWindow {
   void showEvent(QShowEvent* e) override;
   void dragEnterEvent(QDragEnterEvent* e) override;
   void dropEvent(QDropEvent* e) override;
+  void resizeEvent(QResizeEvent* e) override;
+  void moveEvent(QMoveEvent* e) override;
 
  private:
   std::optional<Which> askSide(const QString& path);
   QString importAsked(const QString& path);
+  QString importInto(const QString& path, Which w);
+  void saveLayout();
   void buildDocks();
   void buildMenus();
   void rebuildRecentMenu();
@@ -120,7 +141,6 @@ class MainWindow : public QMainWindow {
 
   // File menu actions.
   void newSession();
-  void openDialog();
   bool save();
   bool saveAsDialog();
   void importDialog(Which w);
@@ -144,6 +164,8 @@ class MainWindow : public QMainWindow {
   QLabel* busyLabel_;
   QMenu* recentMenu_ = nullptr;
   QTimer liveTimer_;
+  QTimer layoutTimer_;  // keeps the geometry in the settings soon after it changes (a crash keeps it)
+  Prompts prompts_;
   std::optional<double> theta_;
   QString lastError_;
   std::function<std::optional<Which>(const QString&)> dropChooser_;

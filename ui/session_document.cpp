@@ -24,7 +24,7 @@ SessionDocument::SessionDocument(QObject* parent) : QObject(parent) {
 void SessionDocument::reset(const Session& s, const QString& path) {
   previewBase_.reset();
   undo_.clear();
-  apply(s);
+  apply(s, newRevision());
   setPath(path);
   undo_.setClean();
   emit modifiedChanged(false);
@@ -38,20 +38,23 @@ void SessionDocument::setPath(const QString& p) {
 
 void SessionDocument::markSaved() { undo_.setClean(); }
 
-void SessionDocument::apply(const Session& s) {
+void SessionDocument::apply(const Session& s, quint64 revision) {
   const bool clouds = !sessionCloudsEqual(s.a, session_.a) || !sessionCloudsEqual(s.b, session_.b);
   const bool params = s.params.values() != session_.params.values();
   const bool sweep = !sessionSweepsEqual(s.sweep, session_.sweep);
   const bool selected = s.selected != session_.selected;
   session_ = s;
+  const bool revised = revision != revision_;
+  revision_ = revision;
   if (clouds) emit cloudsChanged();
   if (params) emit paramsChanged();
   if (sweep) emit sweepChanged();
   if (selected) emit selectionChanged();
+  if (revised) emit revisionChanged(revision_);
 }
 
 void SessionDocument::push(const Session& after, const QString& text) {
-  undo_.push(new SessionEditCommand(this, session_, after, text, false));
+  undo_.push(new SessionEditCommand(this, session_, revision_, after, newRevision(), text, false));
 }
 
 void SessionDocument::setClouds(const Cloud& a, const Cloud& b, const QString& text) {
@@ -89,29 +92,36 @@ void SessionDocument::setSelected(const std::vector<std::string>& ids) {
 }
 
 void SessionDocument::beginPreview() {
-  if (!previewBase_) previewBase_ = session_;
+  if (previewBase_) return;
+  previewBase_ = session_;
+  previewBaseRevision_ = revision_;
 }
 
 void SessionDocument::preview(const Cloud& a, const Cloud& b) {
   beginPreview();
   session_.a = a;
   session_.b = b;
+  revision_ = newRevision();
   emit cloudsChanged();
+  emit revisionChanged(revision_);
 }
 
 void SessionDocument::commitPreview(const QString& text) {
   if (!previewBase_) return;
   Session before = std::move(*previewBase_);
   previewBase_.reset();
-  if (sessionCloudsEqual(before.a, session_.a) && sessionCloudsEqual(before.b, session_.b)) return;
-  undo_.push(new SessionEditCommand(this, std::move(before), session_, text, true));
+  if (sessionCloudsEqual(before.a, session_.a) && sessionCloudsEqual(before.b, session_.b)) {
+    apply(before, previewBaseRevision_);  // nothing moved after all: the results stay current
+    return;
+  }
+  undo_.push(new SessionEditCommand(this, std::move(before), previewBaseRevision_, session_, revision_, text, true));
 }
 
 void SessionDocument::cancelPreview() {
   if (!previewBase_) return;
   Session before = std::move(*previewBase_);
   previewBase_.reset();
-  apply(before);
+  apply(before, previewBaseRevision_);
 }
 
 }  // namespace barrow::ui

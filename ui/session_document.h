@@ -49,8 +49,16 @@ class SessionDocument : public QObject {
   void cancelPreview();
   bool previewing() const { return previewBase_.has_value(); }
 
-  /// Used by the undo commands: installs a state without recording history.
-  void apply(const Session& s);
+  /// Names the session's content. Every edit, a drag's previews included, gets a new number;
+  /// undo and redo go back to the number of the state they reinstall. A result computed at
+  /// revision r is current exactly while isCurrent(r): the one test every pane and export uses.
+  quint64 revision() const { return revision_; }
+  bool isCurrent(quint64 revision) const { return revision == revision_; }
+  /// A fresh revision number for a state about to be installed (undo commands).
+  quint64 newRevision() { return ++lastRevision_; }
+
+  /// Used by the undo commands: installs a state (known as `revision`) without recording history.
+  void apply(const Session& s, quint64 revision);
 
  signals:
   void cloudsChanged();
@@ -59,6 +67,8 @@ class SessionDocument : public QObject {
   void selectionChanged();
   void modifiedChanged(bool modified);
   void pathChanged(const QString& path);
+  /// The content changed (or went back to an earlier state): results may have become stale or current.
+  void revisionChanged(quint64 revision);
 
  private:
   void push(const Session& after, const QString& text);
@@ -67,6 +77,9 @@ class SessionDocument : public QObject {
   QString path_;
   QUndoStack undo_;
   std::optional<Session> previewBase_;
+  quint64 previewBaseRevision_ = 0;
+  quint64 revision_ = 0;
+  quint64 lastRevision_ = 0;
 };
 
 }  // namespace barrow::ui

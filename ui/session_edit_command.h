@@ -14,8 +14,8 @@ class SessionEditCommand : public QUndoCommand {
  public:
   /// `applied`: the document already holds `after` (a committed drag), so the first
   /// redo() that QUndoStack::push() performs does nothing.
-  SessionEditCommand(SessionDocument* doc, Session before, Session after, const QString& text,
-                     bool applied);
+  SessionEditCommand(SessionDocument* doc, Session before, quint64 beforeRevision, Session after,
+                     quint64 afterRevision, const QString& text, bool applied);
   void undo() override;
   void redo() override;
 
@@ -23,6 +23,7 @@ class SessionEditCommand : public QUndoCommand {
   SessionDocument* doc_;
   Session before_;
   Session after_;
+  quint64 beforeRevision_, afterRevision_;  // SessionDocument::revision() of each state
   bool skipRedo_;
 };
 

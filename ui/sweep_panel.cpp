@@ -170,6 +170,8 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
     if (!o.error.empty()) {
       error_ = o.error;
       queue_.clear();
+      previousParts_.clear();
+      plots_->clear(tr("The sweep failed: %1").arg(QString::fromStdString(o.error)));
       status_->setText(tr("Sweep failed: %1").arg(QString::fromStdString(o.error)));
       emit message(status_->text());
       setActive(false);
@@ -179,17 +181,30 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
     if (o.result.cancelled) {
       cancelled_ = true;
       queue_.clear();
-      status_->setText(tr("Cancelled: the curves shown are from the passes that finished."));
+      if (parts_.empty() && !previousParts_.empty()) {
+        // Nothing of this run finished: the previous curves come back, judged against the
+        // session as it is now (stale if it changed since they were computed).
+        parts_ = std::move(previousParts_);
+        runRevision_ = previousRevision_;
+        hasRun_ = previousHasRun_;
+        plots_->setResult(partResults(), findings());
+        status_->setText(tr("Cancelled: the curves shown are from the previous sweep."));
+      } else if (parts_.empty()) {
+        plots_->clear(tr("The sweep was cancelled before a pass finished."));
+        status_->setText(tr("Cancelled before a pass finished."));
+      } else {
+        status_->setText(tr("Cancelled: the curves shown are from the passes that finished."));
+      }
+      previousParts_.clear();
+      updateStale();
       setActive(false);
       emit outcomeReady();
       return;
     }
     parts_.push_back(o);
-    plots_->setResult([this] {
-      std::vector<SweepResult> r;
-      for (const auto& p : parts_) r.push_back(p.result);
-      return r;
-    }(), findings());
+    previousParts_.clear();
+    plots_->setResult(partResults(), findings());
+    updateStale();
     double seconds = 0;
     std::size_t series = 0, thetas = 0;
     for (const auto& p : parts_) {
@@ -202,29 +217,28 @@ SweepPanel::SweepPanel(SessionDocument* doc, QWidget* parent)
     startNextPass();
   });
   connect(plots_, &SweepPlots::thetaChanged, this, &SweepPanel::thetaChanged);
-  connect(doc_, &SessionDocument::sweepChanged, this, [this] {
-    loadFromSession();
-    updateStale();
-  });
-  // Every change of the session, a drag's preview included, is compared with what the shown
-  // curves were computed from: one notion of "current" for the plots and the findings.
-  connect(doc_, &SessionDocument::cloudsChanged, this, &SweepPanel::updateStale);
-  connect(doc_, &SessionDocument::paramsChanged, this, &SweepPanel::updateStale);
-  connect(doc_, &SessionDocument::selectionChanged, this, &SweepPanel::updateStale);
+  connect(doc_, &SessionDocument::sweepChanged, this, &SweepPanel::loadFromSession);
+  // Every change of the session, a drag's preview included, gets a new revision; the curves
+  // are current while the document is at the revision they were computed at.
+  connect(doc_, &SessionDocument::revisionChanged, this, &SweepPanel::updateStale);
   loadFromSession();
 }
 
 bool SweepPanel::resultsCurrent() const {
   if (!hasRun_) return true;  // nothing shown yet, nothing out of date
-  const Session& s = doc_->session();
-  SweepSettings now = s.sweep;
-  now.measures = measureIds();  // as run() fills them in
-  return sessionCloudsEqual(s.a, runA_) && sessionCloudsEqual(s.b, runB_) &&
-         s.params.values() == runParams_.values() && sessionSweepsEqual(now, runSettings_);
+  return doc_->isCurrent(runRevision_);
+}
+
+std::vector<SweepResult> SweepPanel::partResults() const {
+  std::vector<SweepResult> r;
+  for (const auto& p : parts_) r.push_back(p.result);
+  return r;
 }
 
 void SweepPanel::updateStale() {
-  const bool stale = !resultsCurrent();
+  // While a run has brought nothing yet, the previous curves are the ones on screen.
+  const bool showingPrevious = parts_.empty() && !previousParts_.empty();
+  const bool stale = showingPrevious ? !doc_->isCurrent(previousRevision_) : !resultsCurrent();
   plots_->setStale(stale);
   if (stale != stale_) {
     stale_ = stale;
@@ -310,13 +324,18 @@ void SweepPanel::run() {
   runA_ = doc_->session().a;
   runB_ = doc_->session().b;
   runParams_ = doc_->session().params;
-  hasRun_ = true;
-  stale_ = false;
-  emit staleChanged(false);
+  // The curves on screen stay (greyed if out of date) until the first pass brings new ones.
+  if (!parts_.empty()) {
+    previousParts_ = std::move(parts_);
+    previousRevision_ = runRevision_;
+    previousHasRun_ = hasRun_;
+  }
   parts_.clear();
+  runRevision_ = doc_->revision();
+  hasRun_ = true;
   error_.clear();
   cancelled_ = false;
-  plots_->clear(QString());
+  updateStale();
   setActive(true);
   startNextPass();
 }
@@ -366,8 +385,7 @@ std::vector<Finding> SweepPanel::findings() const {
 }
 
 std::string SweepPanel::toCsv() const {
-  std::vector<SweepResult> results;
-  for (const auto& p : parts_) results.push_back(p.result);
+  const std::vector<SweepResult> results = partResults();
   if (results.empty()) return {};
   return formatSweepCsv(mergeSweeps(results));
 }

@@ -40,8 +40,11 @@ class SweepPanel : public QWidget {
   /// Why the last run produced nothing, or "" (also "" while running).
   const std::string& error() const { return error_; }
   bool cancelled() const { return cancelled_; }
-  /// Whether the shown curves and findings were computed from the session as it is now.
+  /// Whether the shown curves and findings were computed from the session as it is now
+  /// (SessionDocument::isCurrent of resultsRevision()).
   bool resultsCurrent() const;
+  /// The session revision the shown curves and findings were computed at.
+  quint64 resultsRevision() const { return runRevision_; }
   /// The sweep as CSV: theta,<id>,...,d_<id>,... (inf for ∞, empty where failed). The
   /// passes' θ grids are merged; a measure has no value at a θ that refinement added in the
   /// other pass, and its cell there is empty.
@@ -67,6 +70,7 @@ class SweepPanel : public QWidget {
   void commit();
   void updateFamilyControls();
   std::vector<std::string> measureIds() const;
+  std::vector<SweepResult> partResults() const;
 
   SessionDocument* doc_;
   SweepRunner runner_;
@@ -94,6 +98,11 @@ class SweepPanel : public QWidget {
   SweepSettings runSettings_;
   Cloud runA_, runB_;
   ParamSet runParams_;
+  quint64 runRevision_ = 0;
+  // What was shown before the running sweep: put back if it is cancelled before a pass ends.
+  std::vector<SweepOutcome> previousParts_;
+  quint64 previousRevision_ = 0;
+  bool previousHasRun_ = false;
   std::string error_;
   bool cancelled_ = false;
   bool hasRun_ = false;

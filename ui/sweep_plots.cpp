@@ -2,12 +2,14 @@
 
 #include <QFontMetrics>
 #include <QLabel>
+#include <QToolTip>
 #include <QVBoxLayout>
 #include <algorithm>
 #include <cmath>
 #include <qcustomplot.h>
 
 #include "measure_style.h"
+#include "measures/registry.h"
 #include "palette.h"
 
 namespace barrow::ui {
@@ -60,6 +62,75 @@ QCPRange robustRange(const std::vector<double>& v) {
   }
   const double pad = 0.06 * (hi - lo);
   return QCPRange(lo - pad, hi + pad);
+}
+
+// The part of a polyline inside lo ≤ y ≤ hi: every segment cut where it leaves the band, a
+// NaN break where it is outside. Vector exports (SVG) do not clip to the axis rect, so the
+// data itself must stay inside it [D: a segment's part in a band of a linear axis is the
+// parameter interval where y(t) = y0 + t·(y1 − y0) lies in it].
+struct Clipped {
+  QVector<double> x, y;
+  std::vector<std::pair<double, bool>> marks;  // θ of the extreme of each run outside; true = above
+};
+
+Clipped clipToBand(const QVector<double>& x, const QVector<double>& y, double lo, double hi) {
+  Clipped c;
+  auto gap = [&](double at) {
+    if (!c.y.isEmpty() && !std::isnan(c.y.back())) {
+      c.x.push_back(at);
+      c.y.push_back(qQNaN());
+    }
+  };
+  auto put = [&](double px, double py) {
+    if (!c.x.isEmpty() && c.x.back() == px && c.y.back() == py) return;
+    c.x.push_back(px);
+    c.y.push_back(py);
+  };
+  // Runs outside the band: one mark at the run's most extreme value.
+  double runTheta = 0, runExtreme = 0;
+  int runSide = 0;  // +1 above, -1 below, 0 none
+  auto closeRun = [&] {
+    if (runSide != 0) c.marks.emplace_back(runTheta, runSide > 0);
+    runSide = 0;
+  };
+  for (int k = 0; k < x.size(); ++k) {
+    const double yk = y[k];
+    const int side = std::isnan(yk) ? 0 : yk > hi ? 1 : yk < lo ? -1 : 0;
+    if (side != runSide) closeRun();
+    if (side != 0 && (runSide == 0 || std::abs(yk) > std::abs(runExtreme))) {
+      runSide = side;
+      runTheta = x[k];
+      runExtreme = yk;
+    }
+    if (std::isnan(yk)) {
+      gap(x[k]);
+      continue;
+    }
+    if (k == 0 || std::isnan(y[k - 1])) {
+      if (side == 0) put(x[k], yk);
+      continue;
+    }
+    const double x0 = x[k - 1], y0 = y[k - 1], dx = x[k] - x0, dy = yk - y0;
+    double t0 = 0, t1 = 1;
+    if (dy == 0) {
+      if (y0 > hi || y0 < lo) t0 = 2;  // wholly outside
+    } else {
+      const double ta = (lo - y0) / dy, tb = (hi - y0) / dy;
+      t0 = std::max(0.0, std::min(ta, tb));
+      t1 = std::min(1.0, std::max(ta, tb));
+    }
+    if (t0 > t1) {
+      gap(x[k]);
+      continue;
+    }
+    const double sx = x0 + t0 * dx, sy = y0 + t0 * dy, ex = x0 + t1 * dx, ey = y0 + t1 * dy;
+    if (t0 > 0) gap(sx);  // came in from outside
+    put(sx, std::clamp(sy, lo, hi));
+    put(ex, std::clamp(ey, lo, hi));
+    if (t1 < 1) gap(ex);  // leaves the band
+  }
+  closeRun();
+  return c;
 }
 
 }  // namespace
@@ -248,6 +319,13 @@ void SweepPlots::rebuild() {
   QCPAxis* sy = slopes_->axis(QCPAxis::atLeft);
   double lo = INFINITY, hi = -INFINITY, ylo = INFINITY, yhi = -INFINITY;
   std::vector<double> allSlopes;
+  struct SlopeGraph {
+    QCPGraph* graph;
+    QVector<double> x, y;
+    std::string id;
+  };
+  std::vector<SlopeGraph> slopeGraphs;
+  clipMarks_.clear();
   for (std::size_t s = 0; s < curves_.size(); ++s) {
     const Curve& c = curves_[s];
     const Scale sc = normalised_ ? finiteScale(c.value) : Scale{0, 1};
@@ -304,11 +382,13 @@ void SweepPlots::rebuild() {
     g->setData(x, y, true);
     g->setPen(pen);
     g->setName(name);
+    g->setProperty("measure", QString::fromStdString(c.id));
     if (!c.low.empty()) g->setName(name + tr(" ±band"));
     auto* gs = plot_->addGraph(sx, sy);
-    gs->setData(x, dy, true);
     gs->setPen(pen);
+    gs->setProperty("measure", QString::fromStdString(c.id));
     gs->removeFromLegend();
+    slopeGraphs.push_back({gs, x, dy, c.id});
     if (hiLite) {  // on top of the others
       g->setLayer("overlay");
       gs->setLayer("overlay");
@@ -316,11 +396,31 @@ void SweepPlots::rebuild() {
   }
   // Findings. Jumps of every measure as short ticks along the top edge; the highlighted
   // measure's jumps as full dashed lines and its flat stretches shaded.
+  ticks_.clear();
+  bool anyJump = false, anyUnresolved = false, anyFlat = false;
   for (const Finding& f : findings_) {
     if (std::none_of(curves_.begin(), curves_.end(), [&](const Curve& x) { return x.id == f.id; })) continue;
     const QColor c = measurePen(f.id).color();
     const bool full = f.id == highlighted_;
+    for (const Jump& j : f.unresolved) {
+      // Unresolved steps: dotted ticks (a suspect the refinement budget could not settle).
+      ticks_.push_back({f.id, j.theta, false});
+      auto* seg = new QCPItemLine(plot_);
+      seg->setClipAxisRect(values_);
+      seg->setPen(QPen(c, full ? 1.6 : 1.4, Qt::DotLine));
+      for (QCPItemPosition* p : {seg->start, seg->end}) {
+        p->setAxes(vx, vy);
+        p->setAxisRect(values_);
+        p->setTypeX(QCPItemPosition::ptPlotCoords);
+        p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+      }
+      seg->start->setCoords(j.theta, 0.0);
+      seg->end->setCoords(j.theta, full ? 1.0 : 0.07);
+      anyUnresolved = true;
+    }
     for (const Jump& j : f.jumps) {
+      ticks_.push_back({f.id, j.theta, true});
+      anyJump = true;
       if (full) {
         for (QCPAxisRect* r : {values_, slopes_}) {
           auto* l = verticalLine(r, QPen(c, 1.4, Qt::DashLine));
@@ -341,6 +441,7 @@ void SweepPlots::rebuild() {
       }
     }
     if (!full) continue;
+    anyFlat = anyFlat || !f.flat.empty();
     for (const auto& [t0, t1] : f.flat) {
       auto* r = new QCPItemRect(plot_);
       r->setClipAxisRect(values_);
@@ -374,6 +475,49 @@ void SweepPlots::rebuild() {
     sy->setRange(robustRange(allSlopes));
   }
   sx->setRange(vx->range());
+  // Slopes beyond the pane: cut at its edges, a triangle on the edge where each excursion peaks.
+  const QCPRange sr = sy->range();
+  for (const SlopeGraph& g : slopeGraphs) {
+    const Clipped cl = clipToBand(g.x, g.y, sr.lower, sr.upper);
+    g.graph->setData(cl.x, cl.y, true);
+    if (cl.marks.empty()) continue;
+    QVector<double> ux, uy, dx, dyv;
+    const double inset = 0.04 * sr.size();  // the marker's centre inside the pane, so it is drawn whole
+    for (const auto& [t, above] : cl.marks) {
+      (above ? ux : dx).push_back(t);
+      (above ? uy : dyv).push_back(above ? sr.upper - inset : sr.lower + inset);
+      clipMarks_.push_back({g.id, t, above});
+    }
+    const QColor col = g.graph->pen().color();
+    for (bool above : {true, false}) {
+      auto* m = plot_->addGraph(sx, sy);
+      m->setData(above ? ux : dx, above ? uy : dyv, true);
+      m->setLineStyle(QCPGraph::lsNone);
+      m->setScatterStyle(QCPScatterStyle(above ? QCPScatterStyle::ssTriangle : QCPScatterStyle::ssTriangleInverted,
+                                         col, col, 6));
+      m->removeFromLegend();
+    }
+  }
+  // What the marks mean, as legend entries after the curves (only those present).
+  auto explain = [&](const QString& text, const QPen& pen, const QCPScatterStyle& shape) {
+    auto* g = plot_->addGraph(vx, vy);
+    g->setPen(pen);
+    g->setLineStyle(shape.isNone() ? QCPGraph::lsLine : QCPGraph::lsNone);
+    g->setScatterStyle(shape);
+    g->setName(text);
+  };
+  const QColor markGrey(90, 90, 90);
+  if (anyJump) explain(tr("┃ top: jump"), QPen(markGrey, 2.2), QCPScatterStyle());
+  if (anyUnresolved) explain(tr("┇ top: unresolved step"), QPen(markGrey, 1.4, Qt::DotLine), QCPScatterStyle());
+  if (anyFlat) explain(tr("shaded: flat"), QPen(QColor(90, 90, 90, 90), 6), QCPScatterStyle());
+  if (!clipMarks_.empty())
+    explain(tr("▲▼ slope off the pane"), QPen(markGrey),
+            QCPScatterStyle(QCPScatterStyle::ssTriangle, markGrey, markGrey, 6));
+  // Lines outside the θ range would be drawn outside the panes in vector exports.
+  const bool refInside = vx->range().contains(refV_->point1->coords().x());
+  refV_->setVisible(refInside);
+  refS_->setVisible(refInside);
+  placeLegend();
   fitLegend();
   plot_->replot(QCustomPlot::rpQueuedReplot);
 }
@@ -412,8 +556,77 @@ void SweepPlots::onPress(QMouseEvent* e) {
 }
 
 void SweepPlots::onMove(QMouseEvent* e) {
-  if (!dragging_ || !(e->buttons() & Qt::LeftButton)) return;
+  if (!dragging_ || !(e->buttons() & Qt::LeftButton)) {
+    const QString tip = toolTipAt(e->position());
+    if (tip.isEmpty()) QToolTip::hideText();
+    else QToolTip::showText(e->globalPosition().toPoint(), tip, plot_);
+    return;
+  }
   placeCursor(values_->axis(QCPAxis::atBottom)->pixelToCoord(e->position().x()), true);
+}
+
+QString SweepPlots::toolTipAt(const QPointF& px) const {
+  constexpr double kNear = 5.0;  // pixels
+  auto name = [](const std::string& id) {
+    const Measure* m = MeasureRegistry::instance().find(id);
+    return m ? QString::fromStdString(id + " — " + m->displayName()) : QString::fromStdString(id);
+  };
+  const QRect v = values_->rect(), sl = slopes_->rect();
+  const QCPAxis* vx = values_->axis(QCPAxis::atBottom);
+  // Finding ticks along the top of the value pane (the highlighted measure's run full height).
+  if (v.contains(px.toPoint())) {
+    const bool nearTop = px.y() <= v.top() + 0.1 * v.height() + kNear;
+    for (const Mark& t : ticks_) {
+      if (std::abs(vx->coordToPixel(t.theta) - px.x()) > kNear) continue;
+      if (!nearTop && t.id != highlighted_) continue;
+      for (const Finding& f : findings_)
+        if (f.id == t.id)
+          return tr("%1: %2 at θ = %3\n%4")
+              .arg(name(t.id), t.flag ? tr("jump") : tr("unresolved step"))
+              .arg(t.theta, 0, 'g', 4)
+              .arg(QString::fromStdString(f.summary));
+    }
+  }
+  if (sl.contains(px.toPoint())) {
+    for (const Mark& m : clipMarks_) {
+      const double edge = m.flag ? sl.top() : sl.bottom();
+      if (std::abs(vx->coordToPixel(m.theta) - px.x()) <= kNear && std::abs(edge - px.y()) <= 2 * kNear)
+        return tr("%1: the slope runs %2 the pane here (the pane's limits leave out the largest slopes so that the "
+                  "others stay readable)")
+            .arg(name(m.id), m.flag ? tr("above") : tr("below"));
+    }
+  }
+  // The nearest curve within reach, in either pane.
+  double best = kNear;
+  QString found;
+  for (int k = 0; k < plot_->graphCount(); ++k) {
+    QCPGraph* g = plot_->graph(k);
+    if (g->data()->isEmpty() || g->pen().style() == Qt::NoPen || g->lineStyle() == QCPGraph::lsNone) continue;
+    const double d = g->selectTest(px, false);
+    if (d >= 0 && d < best) {
+      best = d;
+      found = QString::fromStdString(g->property("measure").toString().toStdString());
+    }
+  }
+  return found.isEmpty() ? QString() : name(found.toStdString());
+}
+
+// An empty legend would cap the height of the row it shares with the value pane (a layout
+// row is no taller than its elements allow, and an empty legend allows only its margins):
+// the value pane then collapses before the first curve arrives. It leaves the layout then.
+void SweepPlots::placeLegend() {
+  QCPLegend* legend = plot_->legend;
+  QCPLayoutGrid* grid = plot_->plotLayout();
+  const bool want = legend->itemCount() > 0;
+  const bool placed = grid->hasElement(0, 1) && grid->element(0, 1) == legend;
+  if (want && !placed) {
+    grid->addElement(0, 1, legend);
+    grid->setColumnStretchFactor(1, 0.001);
+  } else if (!want && placed) {
+    grid->take(legend);
+    grid->simplify();
+  }
+  legend->setVisible(want);
 }
 
 // Fifteen legend rows do not fit beside a short value pane: they would be drawn over each

@@ -52,6 +52,11 @@ class SweepPlots : public QWidget {
   QCPAxisRect* valueRect() const { return values_; }
   QCPAxisRect* slopeRect() const { return slopes_; }
   int curveCount() const { return int(curves_.size()); }
+  /// What the pointer at `px` (plot widget pixels) is over, in words: a finding's tick (its
+  /// finding), a slope beyond the pane, or a curve (its measure); "" over nothing.
+  QString toolTipAt(const QPointF& px) const;
+  /// Number of slope excursions beyond the slope pane marked on its edges.
+  int clipMarkCount() const { return int(clipMarks_.size()); }
   /// Marks the curves as out of date (the clouds changed since the sweep).
   void setStale(bool stale);
   bool stale() const { return stale_; }
@@ -66,6 +71,7 @@ class SweepPlots : public QWidget {
  private:
   void rebuild();
   void fitLegend();
+  void placeLegend();
   void onPress(QMouseEvent* e);
   void onMove(QMouseEvent* e);
   void placeCursor(double theta, bool notify);
@@ -87,6 +93,13 @@ class SweepPlots : public QWidget {
     std::vector<double> low, high;  // resampling band (empty: none)
   };
   std::vector<Curve> curves_;
+  struct Mark {
+    std::string id;
+    double theta;
+    bool flag;  // ticks: confirmed jump (else unresolved); clip marks: above the pane (else below)
+  };
+  std::vector<Mark> ticks_;      // finding ticks along the top of the value pane
+  std::vector<Mark> clipMarks_;  // slopes beyond the slope pane
   std::vector<Finding> findings_;
   QString message_;
   bool normalised_ = true;
