@@ -9,6 +9,7 @@
 #include <QProgressBar>
 #include <QPushButton>
 #include <QSpinBox>
+#include <QScrollArea>
 #include <QSplitter>
 #include <QVBoxLayout>
 #include <qcustomplot.h>
@@ -120,11 +121,11 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   leftBox->setContentsMargins(0, 0, 0, 0);
   leftBox->addLayout(form);
   leftBox->addWidget(summary_, 1);
-  left->setMinimumWidth(250);
+  left->setMinimumWidth(230);
   left->setMaximumWidth(340);
 
   curve_ = new QCustomPlot;
-  curve_->setMinimumWidth(220);
+  curve_->setMinimumWidth(180);
   curve_->xAxis->setLabel(tr("step"));
   curve_->yAxis->setLabel(tr("value"));
   auto addGraph = [&](const QString& name, QPen pen) {
@@ -160,10 +161,20 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   split->addWidget(maps);
   split->setStretchFactor(0, 2);
   split->setStretchFactor(1, 5);
-  auto* box = new QHBoxLayout(this);
+  // In a scroll area: the pane's controls and four plots need about 800 pixels, and a dock's
+  // minimum becomes the window's minimum; a narrow window scrolls the pane instead.
+  auto* inner = new QWidget;
+  auto* box = new QHBoxLayout(inner);
   box->setContentsMargins(4, 4, 4, 4);
   box->addWidget(left);
   box->addWidget(split, 1);
+  auto* scroll = new QScrollArea(this);
+  scroll->setWidgetResizable(true);
+  scroll->setFrameShape(QFrame::NoFrame);
+  scroll->setWidget(inner);
+  auto* outer = new QVBoxLayout(this);
+  outer->setContentsMargins(0, 0, 0, 0);
+  outer->addWidget(scroll);
 
   connect(method_, &QComboBox::currentIndexChanged, this, &CriticPanel::methodChanged);
   connect(trainButton_, &QPushButton::clicked, this, &CriticPanel::train);
@@ -190,7 +201,7 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
 
 QCustomPlot* CriticPanel::makeMap(const QString& title, QCPColorMap** map) {
   auto* plot = new QCustomPlot;
-  plot->setMinimumSize(120, 120);
+  plot->setMinimumSize(110, 120);
   plot->plotLayout()->insertRow(0);
   auto* t = new QCPTextElement(plot, title, QFont(font().family(), 9));
   plot->plotLayout()->addElement(0, 0, t);
