@@ -1,5 +1,6 @@
 #include "main_window.h"
 
+#include <algorithm>
 #include <QApplication>
 #include <QCloseEvent>
 #include <QDateTime>
@@ -167,6 +168,23 @@ void MainWindow::applyDefaultLayout() {
   auto* m = findChild<QDockWidget*>("measuresDock");
   auto* f = findChild<QDockWidget*>("findingsDock");
   auto* s = findChild<QDockWidget*>("sweepDock");
+  // Below 1200 px the Sweep takes the whole bottom edge (beside the right-hand docks its plot
+  // would be about 500 px wide with a legend as wide as the plot), and Findings and
+  // Resampling become tabs beside it, where their sentences have the width; the right-hand
+  // column keeps the Measures table alone, which then shows ids where the names do not fit.
+  const bool narrow = width() < 1200;
+  setCorner(Qt::BottomRightCorner, narrow ? Qt::BottomDockWidgetArea : Qt::RightDockWidgetArea);
+  if (narrow) {
+    auto* r = findChild<QDockWidget*>("resamplingDock");
+    for (QDockWidget* d : {f, r}) {
+      addDockWidget(Qt::BottomDockWidgetArea, d);
+      tabifyDockWidget(s, d);
+    }
+    s->raise();
+    resizeDocks({m}, {std::clamp(width() * 2 / 5, 320, 440)}, Qt::Horizontal);
+    resizeDocks({s}, {height() * 45 / 100}, Qt::Vertical);
+    return;
+  }
   resizeDocks({m}, {std::max(480, width() * 2 / 5)}, Qt::Horizontal);
   resizeDocks({m, f}, {height() * 58 / 100, height() * 42 / 100}, Qt::Vertical);
   resizeDocks({s}, {height() * 40 / 100}, Qt::Vertical);

@@ -3,6 +3,7 @@
 #include <QResizeEvent>
 
 #include <QHeaderView>
+#include <QStyle>
 #include <algorithm>
 #include <QTextBrowser>
 #include <QTreeWidget>
@@ -25,6 +26,21 @@ namespace {
 enum Column { kName = 0, kValue, kChange, kUnit, kStatus, kTime, kInterval, kPValue, kColumns };
 constexpr int kIdRole = Qt::UserRole + 1;
 constexpr int kKeyRole = Qt::UserRole + 2;
+constexpr int kFullRole = Qt::UserRole + 3;  // "id — full name", shown when it fits
+
+// The fixed width of every column but the name's (which stretches).
+int fixedWidth(const QFontMetrics& fm, int c) {
+  switch (c) {
+    case kValue: return fm.horizontalAdvance("0.000000  ");
+    case kChange: return fm.horizontalAdvance("+0.000000  ");
+    case kUnit: return fm.horizontalAdvance("length^0.5   ");  // "dimensionless" elides readably
+    case kStatus: return fm.horizontalAdvance("infinite   ");
+    case kTime: return fm.horizontalAdvance("000.0 ms ");
+    case kInterval: return fm.horizontalAdvance("0.000 [0.000, 0.000]  ");
+    case kPValue: return fm.horizontalAdvance("0.0000  ");
+    default: return 0;
+  }
+}
 
 }  // namespace
 
@@ -58,13 +74,14 @@ MeasuresPanel::MeasuresPanel(SessionDocument* doc, std::vector<const Measure*> m
                          QAbstractItemView::EditKeyPressed);
   tree_->header()->setStretchLastSection(false);
   tree_->header()->setSectionResizeMode(kName, QHeaderView::Stretch);
+  connect(tree_->header(), &QHeaderView::sectionResized, this, [this](int section) {
+    if (section == kName) fitNames();
+  });
   // Fixed widths from the font: resizing to contents would measure every row on every
   // update, which is most of the cost of a table refresh while points are dragged.
   const QFontMetrics fm(font());
-  const int widths[kColumns] = {0, fm.horizontalAdvance("0.000000  "), fm.horizontalAdvance("+0.000000  "),
-                                fm.horizontalAdvance("length^0.5   "),  // "dimensionless" elides readably
-                                fm.horizontalAdvance("infinite   "), fm.horizontalAdvance("000.0 ms "),
-                                fm.horizontalAdvance("0.000 [0.000, 0.000]  "), fm.horizontalAdvance("0.0000  ")};
+  int widths[kColumns];
+  for (int c = 0; c < kColumns; ++c) widths[c] = fixedWidth(fm, c);
   for (int c = kValue; c < kColumns; ++c) {
     tree_->header()->setSectionResizeMode(c, QHeaderView::Interactive);
     tree_->header()->resizeSection(c, widths[c]);
@@ -134,8 +151,10 @@ void MeasuresPanel::build() {
   for (const Measure* m : measures_) {
     auto* item = new QTreeWidgetItem(tree_);
     const QString id = QString::fromStdString(m->id());
-    // The id first: it is short and unique, so an elided name still tells w1 from w2.
+    // "id — name" where it fits, else the id alone (short and unique; fitNames): a name is
+    // never elided, so w1 and w2 never look alike. The full name is always in the tooltip.
     item->setText(kName, id + QStringLiteral(" — ") + QString::fromStdString(m->displayName()));
+    item->setData(kName, kFullRole, item->text(kName));
     item->setData(kName, kIdRole, id);
     item->setIcon(kName, measureIcon(m->id()));
     item->setToolTip(kName, QString::fromStdString(m->displayName() + "\n" + m->formula()));
@@ -250,15 +269,62 @@ void MeasuresPanel::resizeEvent(QResizeEvent* e) {
 }
 
 void MeasuresPanel::fitColumns() {
-  // Room the names need: a measure id and the start of its name ("hellinger — Hell…"),
-  // after the check box and the curve's line sample.
+  // The name column must hold the longest id whole (after the branch, check box and line
+  // sample); below that the Time column steps aside (its value is in the Status tooltip), then
+  // the change column. Time also steps aside while intervals are shown, and when the names
+  // would be cut to less than "hellinger — Hell…".
   const QFontMetrics fm(font());
-  const int nameRoom = fm.horizontalAdvance("hellinger — Hell…") + 60;
+  int longestId = 0;
+  for (const Measure* m : measures_) longestId = std::max(longestId, fm.horizontalAdvance(QString::fromStdString(m->id())));
+  const int decoration = tree_->indentation() + 64;
+  const int idRoom = longestId + decoration;
+  const int wideRoom = fm.horizontalAdvance("hellinger — Hell…") + decoration;
+  int fixed = 0;
+  for (int c = kValue; c < kColumns; ++c)
+    if (c != kTime && c != kChange && !(c == kInterval || c == kPValue ? !intervalsShown_ : false))
+      fixed += fixedWidth(fm, c);
+  const int room = tree_->viewport()->width() - fixed;
+  const bool showChange = room - fixedWidth(fm, kChange) >= idRoom;
+  const bool showTime = !intervalsShown_ && showChange && room - fixedWidth(fm, kChange) - fixedWidth(fm, kTime) >= wideRoom;
+  tree_->setColumnHidden(kChange, !showChange);
+  tree_->setColumnHidden(kTime, !showTime);
+  fitNames();
+}
+
+int MeasuresPanel::nameTextWidth(QTreeWidgetItem* item) const {
+  // The cell after the branch, less check box and line sample with the style's item margins
+  // and the text's own (how the style lays out a view item), less 2 px to spare.
+  QStyle* st = tree_->style();
+  const int margin = st->pixelMetric(QStyle::PM_FocusFrameHMargin, nullptr, tree_) + 1;
+  // The name column's right edge once the header has stretched it (its own width may still be
+  // the old one right after a column was hidden or shown): the viewport less the other columns.
   int others = 0;
   for (int c = kValue; c < kColumns; ++c)
-    if (c != kTime && !tree_->isColumnHidden(c)) others += tree_->header()->sectionSize(c);
-  const bool narrow = tree_->viewport()->width() - others - tree_->header()->sectionSize(kTime) < nameRoom;
-  tree_->setColumnHidden(kTime, intervalsShown_ || narrow);
+    if (!tree_->isColumnHidden(c)) others += tree_->header()->sectionSize(c);
+  const int right = tree_->viewport()->width() - others;
+  const int cell = right - tree_->visualItemRect(item).left();
+  const int check = st->pixelMetric(QStyle::PM_IndicatorWidth, nullptr, tree_) + 2 * margin;
+  const int icon = (tree_->iconSize().isValid() ? tree_->iconSize().width() : 16) + 2 * margin;
+  return cell - check - icon - 2 * margin - 2;
+}
+
+void MeasuresPanel::fitNames() {
+  // All rows in one form: "id — name" when every one fits, else ids alone (a table that
+  // mixes both reads as if some rows were different in kind).
+  const QFontMetrics fm(tree_->font());
+  bool allFit = true;
+  for (int r = 0; r < tree_->topLevelItemCount() && allFit; ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    const QString full = it->data(kName, kFullRole).toString();
+    if (!full.isEmpty() && fm.horizontalAdvance(full) > nameTextWidth(it)) allFit = false;
+  }
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* it = tree_->topLevelItem(r);
+    const QString full = it->data(kName, kFullRole).toString();
+    if (full.isEmpty()) continue;
+    const QString want = allFit ? full : it->data(kName, kIdRole).toString();
+    if (it->text(kName) != want) it->setText(kName, want);
+  }
 }
 
 int MeasuresPanel::intervalColumn() { return kInterval; }

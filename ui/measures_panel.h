@@ -65,6 +65,9 @@ class MeasuresPanel : public QWidget {
   // Hides the Time column when the pane is too narrow for the measure names beside it
   // (its value stays in the Status tooltip), and whenever the interval columns are shown.
   void fitColumns();
+  /// Each row shows "id — name" when the column has room for all of it, else the id alone.
+  void fitNames();
+  int nameTextWidth(QTreeWidgetItem* item) const;
   void build();
   void refreshParams();
   void refreshSelection();

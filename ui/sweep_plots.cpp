@@ -177,7 +177,7 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   plot_->plotLayout()->addElement(0, 1, legend);
   plot_->plotLayout()->setColumnStretchFactor(1, 0.001);
   legend->setFont(font());
-  legend->setRowSpacing(-2);
+  legend->setRowSpacing(0);  // negative spacing clipped the underscores of kl_ab, kl_ba
   legend->setBorderPen(Qt::NoPen);
   legend->setMargins(QMargins(4, 2, 4, 2));
   legend->setIconSize(22, 10);

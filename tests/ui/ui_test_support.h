@@ -19,6 +19,9 @@ namespace barrow::ui::test {
 /// first-run guide, and sweeping only when asked.
 inline std::unique_ptr<MainWindow> makeWindow(const Session& s, bool autoSweep = false) {
   QSettings().setValue("ui/gettingStartedShown", true);
+  // Each window starts from the default layout, not from one an earlier test left behind.
+  QSettings().remove("ui/geometry");
+  QSettings().remove("ui/state");
   MainWindow::Options o;
   o.quiet = true;
   o.autoSweep = autoSweep;
