@@ -196,6 +196,7 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
     curve_->replot(QCustomPlot::rpQueuedReplot);
   });
   connect(runner_, &CriticRunner::finished, this, &CriticPanel::onFinished);
+  connect(doc_, &SessionDocument::revisionChanged, this, &CriticPanel::updateStale);
   methodChanged();
 }
 
@@ -257,6 +258,7 @@ void CriticPanel::train() {
   curve_->replot(QCustomPlot::rpQueuedReplot);
   progress_->setValue(0);
   summary_->setText(tr("Training…"));
+  runRevision_ = doc_->revision();
   runner_->start(session.a, session.b, settings());
 }
 
@@ -279,9 +281,21 @@ void CriticPanel::onFinished(std::shared_ptr<const CriticOutcome> out) {
           row(tr("max ‖∇f‖ grid · data"), num(c.lipschitzGrid) + " · " + num(c.lipschitzData)) +
           row(tr("correlation with φ"), QString::number(c.potentialCorrelation, 'f', 3)) + "</table>" +
           tr("%1 steps in %2 s").arg(c.steps).arg(c.seconds, 0, 'f', 2);
-  summary_->setTextFormat(Qt::RichText);
-  summary_->setText(text);
+  resultText_ = text;
+  hasResult_ = true;
+  trainedRevision_ = runRevision_;
+  updateStale();
   if (c.status == Status::Ok) showMaps(*out);
+}
+
+bool CriticPanel::stale() const { return hasResult_ && !doc_->isCurrent(trainedRevision_); }
+
+void CriticPanel::updateStale() {
+  if (!hasResult_) return;
+  // The same test as every other pane: results belong to one session revision.
+  summary_->setText(stale() ? tr("<b>Out of date</b>: the clouds changed since this critic was trained; "
+                                 "Train again.<br>") + resultText_
+                            : resultText_);
 }
 
 void CriticPanel::showMaps(const CriticOutcome& out) {

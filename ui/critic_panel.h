@@ -39,16 +39,23 @@ class CriticPanel : public QWidget {
   const CriticOutcome* outcome() const { return outcome_.get(); }
   QCustomPlot* curvePlot() const { return curve_; }
   QLabel* summary() const { return summary_; }
+  /// True when the shown critic was trained on clouds the session no longer has.
+  bool stale() const;
 
  private:
   void methodChanged();
   void onFinished(std::shared_ptr<const CriticOutcome> out);
   void showMaps(const CriticOutcome& out);
+  void updateStale();
   QCustomPlot* makeMap(const QString& title, QCPColorMap** map);
 
   SessionDocument* doc_;
   CriticRunner* runner_;
   std::shared_ptr<const CriticOutcome> outcome_;
+  quint64 trainedRevision_ = 0;  // the session revision the shown critic was trained on
+  quint64 runRevision_ = 0;      // the revision of the run in flight
+  bool hasResult_ = false;
+  QString resultText_;
   QComboBox* method_;
   QSpinBox* steps_;
   QSpinBox* batch_;

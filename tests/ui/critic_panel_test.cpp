@@ -10,6 +10,7 @@
 
 #include "critic_panel.h"
 #include "critic_runner.h"
+#include "session_document.h"
 #include "support/test_support.h"
 #include "ui_test_support.h"
 
@@ -76,6 +77,27 @@ TEST(CriticPanelTest, NewerRunReplacesOlderAndStopCancels) {
   EXPECT_EQ(p->outcome()->check.status, Status::Cancelled);
   EXPECT_LT(p->outcome()->check.steps, 200000);
   EXPECT_FALSE(p->runner()->running());
+}
+
+// The critic belongs to the clouds it was trained on: an edit makes the pane say so (the one
+// "current for this session revision" test every pane uses), and undo makes it current again.
+TEST(CriticPanelTest, AnEditMarksTheTrainedCriticOutOfDateAndUndoRestoresIt) {
+  auto w = test::makeWindow(twoBlobs());
+  CriticPanel* p = w->critic();
+  p->findChild<QSpinBox*>("criticSteps")->setValue(50);
+  p->train();
+  ASSERT_TRUE(waitFinished(p));
+  QApplication::processEvents();
+  EXPECT_FALSE(p->stale());
+  EXPECT_FALSE(p->summary()->text().contains("Out of date"));
+  Cloud moved = w->document()->session().a;
+  moved.points(0, 0) += 0.5;
+  w->document()->setClouds(moved, w->document()->session().b, "move a point");
+  EXPECT_TRUE(p->stale());
+  EXPECT_TRUE(p->summary()->text().contains("Out of date"));
+  w->document()->undoStack()->undo();
+  EXPECT_FALSE(p->stale());
+  EXPECT_FALSE(p->summary()->text().contains("Out of date"));
 }
 
 }  // namespace
