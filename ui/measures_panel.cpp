@@ -323,7 +323,12 @@ void MeasuresPanel::fitNames() {
     const QString full = it->data(kName, kFullRole).toString();
     if (full.isEmpty()) continue;
     const QString want = allFit ? full : it->data(kName, kIdRole).toString();
+    // A relabelling is not a tick: without the guard itemChanged would re-read the check
+    // boxes into the session's selection (and undo an opened session's choice).
+    const bool was = updatingUi_;
+    updatingUi_ = true;
     if (it->text(kName) != want) it->setText(kName, want);
+    updatingUi_ = was;
   }
 }
 
