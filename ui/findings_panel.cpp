@@ -7,6 +7,7 @@
 #include <QVBoxLayout>
 
 #include "measure_style.h"
+#include "palette.h"
 #include "measures/registry.h"
 #include "session_document.h"
 
@@ -89,7 +90,7 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings, quint64 re
     if (!f.jumps.empty() && !f.unresolved.empty()) verdict += tr(", unresolved");
     if (!f.flat.empty() && !f.infiniteEverywhere) verdict += tr(", flat");
     auto* v = new QTableWidgetItem(verdict);
-    v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
+    v->setForeground(f.continuous && f.flat.empty() ? palette::goodText() : palette::warnText());
     v->setData(Qt::UserRole + 2, v->foreground());
     v->setToolTip(tr("Lipschitz estimate %1").arg(f.lipschitz, 0, 'g', 3));
     auto* words = new QTableWidgetItem(QString::fromStdString(f.summary));

@@ -48,6 +48,9 @@ QColor plotBackground(Scheme s) { return s == Scheme::Dark ? QColor(30, 30, 30) 
 QColor plotText(Scheme s) { return s == Scheme::Dark ? QColor(220, 220, 220) : QColor(0, 0, 0); }
 QColor plotGrid(Scheme s) { return s == Scheme::Dark ? QColor(72, 72, 72) : QColor(200, 200, 200); }
 QColor neutralMark(Scheme s) { return s == Scheme::Dark ? QColor(160, 160, 160) : QColor(90, 90, 90); }
+QColor exactPlan(Scheme s) { return s == Scheme::Dark ? QColor(224, 224, 224) : QColor(0, 0, 0); }
+QColor goodText(Scheme s) { return s == Scheme::Dark ? QColor(90, 200, 150) : QColor(0, 110, 80); }
+QColor warnText(Scheme s) { return s == Scheme::Dark ? QColor(240, 150, 80) : QColor(190, 80, 0); }
 QColor cursor(Scheme s) { return s == Scheme::Dark ? QColor(235, 235, 235) : QColor(40, 40, 40); }
 
 // Okabe–Ito blue, vermillion, bluish green, reddish purple and black (light grey on dark).

@@ -30,11 +30,15 @@ QColor neutralMark(Scheme s);
 inline QColor cloudA() { return QColor(0, 114, 178); }   // Okabe–Ito blue
 inline QColor cloudB() { return QColor(213, 94, 0); }    // Okabe–Ito vermillion
 inline QColor accent() { return QColor(0, 158, 115); }   // Okabe–Ito bluish green
-inline QColor exactPlan() { return QColor(0, 0, 0); }    // Okabe–Ito black
+/// Okabe–Ito black (light grey on a dark background).
+QColor exactPlan(Scheme s = currentScheme());
 inline QColor entropicPlan() { return QColor(204, 121, 167); }  // Okabe–Ito reddish purple
 inline QColor interpolation() { return accent(); }
 /// Near black (near white when dark): distinct from every curve's colour and dash.
 QColor cursor(Scheme s = currentScheme());
+/// Text of a reassuring verdict (continuous) and of a warning one (jumps, flat, unresolved).
+QColor goodText(Scheme s = currentScheme());
+QColor warnText(Scheme s = currentScheme());
 inline QColor jump() { return QColor(213, 94, 0); }
 inline QColor flat() { return QColor(86, 180, 233, 60); }  // Okabe–Ito sky blue, translucent
 

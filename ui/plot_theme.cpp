@@ -36,24 +36,28 @@ class SchemeFollower : public QObject {
 
 }  // namespace
 
+void applyAxisTheme(QCPAxis* a) {
+  const palette::Scheme s = palette::currentScheme();
+  const QColor text = palette::plotText(s), grid = palette::plotGrid(s);
+  a->setBasePen(QPen(text, 0));
+  a->setTickPen(QPen(text, 0));
+  a->setSubTickPen(QPen(text, 0));
+  a->setTickLabelColor(text);
+  a->setLabelColor(text);
+  a->grid()->setPen(QPen(grid, 0, Qt::DotLine));
+  a->grid()->setZeroLinePen(QPen(grid, 0, Qt::SolidLine));
+  QColor sub = grid;
+  sub.setAlpha(120);
+  a->grid()->setSubGridPen(QPen(sub, 0, Qt::DotLine));
+}
+
 void applyPlotTheme(QCustomPlot* plot) {
   const palette::Scheme s = palette::currentScheme();
-  const QColor bg = palette::plotBackground(s), text = palette::plotText(s), grid = palette::plotGrid(s);
+  const QColor bg = palette::plotBackground(s), text = palette::plotText(s);
   plot->setBackground(bg);
   for (QCPAxisRect* r : plot->axisRects()) {
     r->setBackground(Qt::NoBrush);
-    for (QCPAxis* a : r->axes()) {
-      a->setBasePen(QPen(text, 1));
-      a->setTickPen(QPen(text, 1));
-      a->setSubTickPen(QPen(text, 1));
-      a->setTickLabelColor(text);
-      a->setLabelColor(text);
-      a->grid()->setPen(QPen(grid, 1, Qt::DotLine));
-      a->grid()->setZeroLinePen(Qt::NoPen);
-      QColor sub = grid;
-      sub.setAlpha(120);
-      a->grid()->setSubGridPen(QPen(sub, 1, Qt::DotLine));
-    }
+    for (QCPAxis* a : r->axes()) applyAxisTheme(a);
   }
   if (plot->legend) {
     plot->legend->setBrush(bg);

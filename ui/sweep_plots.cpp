@@ -144,7 +144,7 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   layout->addWidget(plot_, 1);
   hint_->setWordWrap(true);
   hint_->setVisible(false);
-  hint_->setStyleSheet("color: #555555;");
+  hint_->setForegroundRole(QPalette::PlaceholderText);  // grey in either scheme
   plot_->setObjectName("sweepPlot");
   plot_->setToolTip(tr("Top: each measure against θ. Bottom: dD/dθ (analytic where the theory gives it, "
                        "finite differences otherwise). Click or drag to move the θ cursor; double-click releases it."));

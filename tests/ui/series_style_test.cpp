@@ -19,7 +19,13 @@
 #include "measure_style.h"
 #include "measures/registry.h"
 #include "palette.h"
+#include "field_panel.h"
+#include "field_view.h"
+#include "findings_panel.h"
+#include "scenario/demo_scenario.h"
+#include "sweep_panel.h"
 #include "sweep_plots.h"
+#include "ui_test_support.h"
 
 namespace barrow::ui {
 namespace {
@@ -156,6 +162,43 @@ TEST(SeriesStyleTest, PlottedCurvesAreDistinctAndContrastInBothSchemes) {
       EXPECT_EQ(plot->legend->itemWithPlottable(graph)->textColor(), palette::plotText(s)) << id;
     }
     EXPECT_EQ(shown, plots.curveCount()) << name(s);
+  }
+}
+
+// The whole window under a dark application palette (as a dark system gives it): the Field and
+// the Sweep plot paint the dark background, every curve drawn keeps 3:1 against it, the plan
+// is not drawn black on it, and the Findings' coloured verdicts keep 4.5:1 against the table
+// (WCAG 2.1, success criterion 1.4.3, for text).
+TEST(SeriesStyleTest, WindowFollowsADarkPalette) {
+  SchemeScope dark(palette::Scheme::Dark);
+  auto w = test::makeWindow(demoSession());
+  w->sweep()->run();
+  ASSERT_TRUE(test::waitIdle(*w));
+  const QColor bg = palette::plotBackground(palette::Scheme::Dark);
+  for (QCustomPlot* plot : {w->sweep()->plots()->plot(), w->field()->view()->plot()}) {
+    plot->replot();
+    const QImage img = plot->toPixmap(plot->width(), plot->height()).toImage();
+    EXPECT_EQ(img.pixelColor(2, 2).rgb(), bg.rgb()) << plot->objectName().toStdString();
+    EXPECT_GE(contrast(plot->xAxis->tickLabelColor(), bg), 4.5) << plot->objectName().toStdString();
+  }
+  QCustomPlot* sweep = w->sweep()->plots()->plot();
+  int curves = 0;
+  for (int g = 0; g < sweep->graphCount(); ++g) {
+    if (sweep->graph(g)->property("measure").toString().isEmpty()) continue;
+    ++curves;
+    EXPECT_GE(contrast(sweep->graph(g)->pen().color(), bg), 3.0) << sweep->graph(g)->name().toStdString();
+  }
+  EXPECT_GT(curves, 0);
+  EXPECT_GE(contrast(palette::exactPlan(), bg), 3.0) << "the plan's segments";
+  QTableWidget* t = w->findings()->table();
+  ASSERT_GT(t->rowCount(), 0);
+  const QColor base = t->palette().color(QPalette::Base);
+  for (int r = 0; r < t->rowCount(); ++r)
+    EXPECT_GE(contrast(t->item(r, 1)->foreground().color(), base), 4.5) << t->item(r, 1)->text().toStdString();
+  for (palette::Scheme s : {palette::Scheme::Light, palette::Scheme::Dark}) {
+    const QColor b = s == palette::Scheme::Dark ? base : QColor(Qt::white);
+    EXPECT_GE(contrast(palette::goodText(s), b), 4.5) << name(s);
+    EXPECT_GE(contrast(palette::warnText(s), b), 4.5) << name(s);
   }
 }
 
