@@ -8,6 +8,7 @@
 #include <cmath>
 #include <qcustomplot.h>
 
+#include "marked_graph.h"
 #include "measure_style.h"
 #include "measures/registry.h"
 #include "palette.h"
@@ -408,7 +409,7 @@ void SweepPlots::rebuild() {
       bottom->setChannelFillGraph(top);
       bottom->removeFromLegend();
     }
-    auto* g = plot_->addGraph(vx, vy);
+    auto* g = new MarkedGraph(vx, vy);
     g->setData(x, y, true);
     g->setPen(pen);
     g->setScatterStyle(marker);
