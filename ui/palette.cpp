@@ -55,9 +55,9 @@ QColor cursor(Scheme s) { return s == Scheme::Dark ? QColor(235, 235, 235) : QCo
 
 // Okabe–Ito blue, vermillion, bluish green, reddish purple and black (light grey on dark).
 // Orange (2.25:1 on white), sky blue (2.31:1) and yellow (1.32:1) fail 3:1 on white; darkened
-// until they pass, orange nears vermillion and sky blue nears blue in lightness, the cue that
-// tells those pairs apart under red–green deficiency, so they are not used for curves: four
-// dash patterns make up for the two colours.
+// just enough to pass, each comes within 5.5–6.8 (CAM02-UCS) of a kept colour as a dichromat
+// sees it, while the kept five stay at least 11.7 apart (tests/ui/check_palette_cvd.py), so
+// they are not used for curves: four dash patterns make up for the three colours.
 QColor curveColor(int k, Scheme s) {
   static const QColor light[kCurveColours] = {QColor(0, 114, 178), QColor(213, 94, 0), QColor(0, 158, 115),
                                               QColor(204, 121, 167), QColor(0, 0, 0)};
