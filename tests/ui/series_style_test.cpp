@@ -202,5 +202,29 @@ TEST(SeriesStyleTest, WindowFollowsADarkPalette) {
   }
 }
 
+// A system that switches to dark while the window is open (the palette changes under it): the
+// plots and the Findings' verdicts take the new scheme's colours without a new sweep.
+TEST(SeriesStyleTest, SwitchingSchemeWhileOpenRecoloursPlotsAndVerdicts) {
+  SchemeScope light(palette::Scheme::Light);
+  auto w = test::makeWindow(demoSession());
+  w->sweep()->run();
+  ASSERT_TRUE(test::waitIdle(*w));
+  QTableWidget* t = w->findings()->table();
+  ASSERT_GT(t->rowCount(), 0);
+  for (palette::Scheme s : {palette::Scheme::Dark, palette::Scheme::Light}) {
+    palette::applyScheme(s);
+    QApplication::processEvents();
+    QCustomPlot* plot = w->sweep()->plots()->plot();
+    plot->replot();
+    EXPECT_EQ(plot->toPixmap(plot->width(), plot->height()).toImage().pixelColor(2, 2).rgb(),
+              palette::plotBackground(s).rgb())
+        << name(s);
+    for (int r = 0; r < t->rowCount(); ++r) {
+      const QColor c = t->item(r, 1)->foreground().color();
+      EXPECT_TRUE(c == palette::goodText(s) || c == palette::warnText(s)) << name(s) << " row " << r;
+    }
+  }
+}
+
 }  // namespace
 }  // namespace barrow::ui
