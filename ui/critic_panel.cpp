@@ -222,6 +222,9 @@ QCustomPlot* CriticPanel::makeMap(const QString& title, QCPColorMap** map) {
     g->setScatterStyle(QCPScatterStyle(k == 0 ? QCPScatterStyle::ssCircle : QCPScatterStyle::ssTriangle,
                                        QPen(Qt::white, 0.6), c, 5));
   }
+  auto titleColour = [t] { t->setTextColor(palette::plotText(palette::currentScheme())); };
+  followScheme(plot, titleColour);
+  titleColour();
   return plot;
 }
 
