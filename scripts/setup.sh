@@ -7,7 +7,7 @@ cd "$(dirname "$0")/.."
 PACKAGES=(cmake ninja-build ccache g++ pkg-config
           qt6-base-dev qt6-svg-dev libqcustomplot-dev libeigen3-dev nlohmann-json3-dev
           libgtest-dev libgmock-dev googletest libbenchmark-dev liblemon-dev
-          python3 python3-numpy python3-scipy python3-sklearn python3-torch
+          python3 python3-numpy python3-scipy python3-sklearn python3-torch python3-colorspacious
           xvfb xauth fonts-dejavu-core
           clang-14 libclang-rt-14-dev  # fuzz targets (libFuzzer) and sanitizer builds
           chromium nodejs  # the report's browser tests (tests/report)

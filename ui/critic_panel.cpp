@@ -17,6 +17,7 @@
 #include "critic_runner.h"
 #include "base/number_text.h"
 #include "palette.h"
+#include "plot_theme.h"
 #include "session_document.h"
 #include "viridis.h"
 
@@ -135,7 +136,7 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   };
   addGraph(tr("estimate E_A f − E_B f"), palette::curvePen(0, 1.8));
   addGraph(tr("certified bound (÷ L_upper)"), palette::curvePen(2, 1.8));
-  QPen exactPen(palette::exactPlan(), 1.4, Qt::DashLine);
+  QPen exactPen(palette::plotText(palette::currentScheme()), 1.4, Qt::DashLine);
   addGraph(tr("exact W1"), exactPen);
   curve_->legend->setVisible(true);
   curve_->legend->setFont(QFont(font().family(), 8));
@@ -144,6 +145,9 @@ CriticPanel::CriticPanel(SessionDocument* doc, QWidget* parent)
   curve_->plotLayout()->setRowStretchFactor(1, 0.001);
   curve_->legend->setBorderPen(Qt::NoPen);
   curve_->legend->setRowSpacing(0);
+  followScheme(curve_, [this] {
+    if (curve_->graphCount() > 2) curve_->graph(2)->setPen(QPen(palette::plotText(palette::currentScheme()), 1.4, Qt::DashLine));
+  });
 
   fPlot_ = makeMap(tr("critic f\n(trained network)"), &fMap_);
   phiPlot_ = makeMap(tr("exact potential φ\n(W1 solver)"), &phiMap_);
@@ -218,6 +222,9 @@ QCustomPlot* CriticPanel::makeMap(const QString& title, QCPColorMap** map) {
     g->setScatterStyle(QCPScatterStyle(k == 0 ? QCPScatterStyle::ssCircle : QCPScatterStyle::ssTriangle,
                                        QPen(Qt::white, 0.6), c, 5));
   }
+  auto titleColour = [t] { t->setTextColor(palette::plotText(palette::currentScheme())); };
+  followScheme(plot, titleColour);
+  titleColour();
   return plot;
 }
 

@@ -8,6 +8,7 @@
 
 #include "cloud_layer.h"
 #include "palette.h"
+#include "plot_theme.h"
 #include "segment_layer.h"
 #include "viridis.h"
 
@@ -75,7 +76,17 @@ FieldView::FieldView(QWidget* parent)
   interp_->setVisible(false);
 
   plot_->legend->setVisible(true);
-  plot_->legend->setBrush(QColor(255, 255, 255, 215));
+  // The plot, the plan's neutral colour, the legend's translucent box and the colour scale
+  // in the application's scheme.
+  auto colour = [this] {
+    exact_->setColor(palette::exactPlan());
+    QColor fill = palette::plotBackground(palette::currentScheme());
+    fill.setAlpha(215);
+    plot_->legend->setBrush(fill);
+    applyAxisTheme(scale_->axis());
+  };
+  followScheme(plot_, colour);
+  colour();
   plot_->legend->setFont(font());
   plot_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignLeft);
   refresh();

@@ -1,5 +1,6 @@
 #include "findings_panel.h"
 
+#include <QEvent>
 #include <QHeaderView>
 #include <QLabel>
 #include <QTableWidget>
@@ -7,6 +8,7 @@
 #include <QVBoxLayout>
 
 #include "measure_style.h"
+#include "palette.h"
 #include "measures/registry.h"
 #include "session_document.h"
 
@@ -89,7 +91,9 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings, quint64 re
     if (!f.jumps.empty() && !f.unresolved.empty()) verdict += tr(", unresolved");
     if (!f.flat.empty() && !f.infiniteEverywhere) verdict += tr(", flat");
     auto* v = new QTableWidgetItem(verdict);
-    v->setForeground(f.continuous && f.flat.empty() ? QColor(0, 110, 80) : QColor(190, 80, 0));
+    const bool good = f.continuous && f.flat.empty();
+    v->setData(Qt::UserRole + 3, good);
+    v->setForeground(good ? palette::goodText() : palette::warnText());
     v->setData(Qt::UserRole + 2, v->foreground());
     v->setToolTip(tr("Lipschitz estimate %1").arg(f.lipschitz, 0, 'g', 3));
     auto* words = new QTableWidgetItem(QString::fromStdString(f.summary));
@@ -104,6 +108,20 @@ void FindingsPanel::setFindings(const std::vector<Finding>& findings, quint64 re
   stale_ = false;
   notice_->setVisible(false);
   updateStale();
+}
+
+void FindingsPanel::changeEvent(QEvent* e) {
+  QWidget::changeEvent(e);
+  if (e->type() != QEvent::PaletteChange) return;
+  for (int r = 0; r < table_->rowCount(); ++r) {
+    QTableWidgetItem* name = table_->item(r, 0);
+    QTableWidgetItem* verdict = table_->item(r, 1);
+    if (!name || !verdict) continue;
+    name->setIcon(measureIcon(name->data(Qt::UserRole).toString().toStdString()));
+    const QBrush colour(verdict->data(Qt::UserRole + 3).toBool() ? palette::goodText() : palette::warnText());
+    verdict->setData(Qt::UserRole + 2, colour);
+    if (!stale_) verdict->setForeground(colour);
+  }
 }
 
 void FindingsPanel::updateStale() {

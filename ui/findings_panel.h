@@ -34,6 +34,8 @@ class FindingsPanel : public QWidget {
 
  protected:
   void resizeEvent(QResizeEvent* e) override;
+  /// A switch between light and dark scheme recolours the verdicts and the swatches.
+  void changeEvent(QEvent* e) override;
 
  private:
   void updateStale();

@@ -120,6 +120,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   auto focus = [this](const QString& id) { focusMeasure(id.toStdString()); };
   connect(measures_, &MeasuresPanel::measureFocused, this, focus);
   connect(findings_, &FindingsPanel::measureFocused, this, focus);
+  connect(sweep_->plots(), &SweepPlots::measurePicked, this, focus);
 
   restoreLayout();
   updateTitle();

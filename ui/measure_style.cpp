@@ -1,7 +1,7 @@
 #include "measure_style.h"
 
-#include <QPainter>
 #include <QPixmap>
+#include <qcustomplot.h>
 
 #include "measures/registry.h"
 #include "palette.h"
@@ -17,14 +17,26 @@ std::size_t measureRank(const std::string& id) {
 
 QPen measurePen(const std::string& id, double width) { return palette::curvePen(int(measureRank(id)), width); }
 
+QCPScatterStyle measureMarker(const std::string& id, const QPen& pen, double size) {
+  static const QCPScatterStyle::ScatterShape shapes[palette::kCurveMarkers] = {
+      QCPScatterStyle::ssCircle, QCPScatterStyle::ssSquare, QCPScatterStyle::ssDiamond,
+      QCPScatterStyle::ssCross,  QCPScatterStyle::ssPlus,   QCPScatterStyle::ssStar};
+  QPen outline(pen.color(), 1.3);
+  outline.setStyle(Qt::SolidLine);
+  return QCPScatterStyle(shapes[palette::curveMarker(int(measureRank(id)))], outline, Qt::NoBrush, size);
+}
+
 QIcon measureIcon(const std::string& id) {
   QPixmap pm(22, 12);
   pm.fill(Qt::transparent);
-  QPainter p(&pm);
+  QCPPainter p(&pm);
   p.setRenderHint(QPainter::Antialiasing);
-  QPen pen = measurePen(id, 2.4);
+  const QPen pen = measurePen(id, 2.0);
   p.setPen(pen);
   p.drawLine(QPointF(1, 6), QPointF(21, 6));
+  const QCPScatterStyle marker = measureMarker(id, pen, 6);
+  marker.applyTo(&p, pen);
+  marker.drawShape(&p, QPointF(11, 6));
   return QIcon(pm);
 }
 

@@ -6,6 +6,7 @@
 #include <qcustomplot.h>
 
 #include "measure_style.h"
+#include "plot_theme.h"
 
 namespace barrow::ui {
 
@@ -25,6 +26,7 @@ SizePlot::SizePlot(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot(thi
   plot_->xAxis->setLabel(tr("points per cloud n"));
   plot_->yAxis->setLabel(tr("mean value"));
   plot_->setMinimumHeight(140);
+  followScheme(plot_);
   clear(tr("Run Resampling ▸ Intervals and p-values to see how the selected measure changes with n."));
 }
 

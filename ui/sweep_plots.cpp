@@ -8,9 +8,11 @@
 #include <cmath>
 #include <qcustomplot.h>
 
+#include "marked_graph.h"
 #include "measure_style.h"
 #include "measures/registry.h"
 #include "palette.h"
+#include "plot_theme.h"
 
 namespace barrow::ui {
 
@@ -143,7 +145,7 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   layout->addWidget(plot_, 1);
   hint_->setWordWrap(true);
   hint_->setVisible(false);
-  hint_->setStyleSheet("color: #555555;");
+  hint_->setForegroundRole(QPalette::PlaceholderText);  // grey in either scheme
   plot_->setObjectName("sweepPlot");
   plot_->setToolTip(tr("Top: each measure against θ. Bottom: dD/dθ (analytic where the theory gives it, "
                        "finite differences otherwise). Click or drag to move the θ cursor; double-click releases it."));
@@ -217,7 +219,34 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   cursorLabel_->setVisible(false);
   cursorV_->setVisible(false);
   cursorS_->setVisible(false);
+  // A click on a curve's legend entry picks that measure (again: lets it go).
+  connect(plot_, &QCustomPlot::legendClick, this, [this](QCPLegend*, QCPAbstractLegendItem* item, QMouseEvent*) {
+    auto* entry = qobject_cast<QCPPlottableLegendItem*>(item);
+    const QString id = entry ? entry->plottable()->property("measure").toString() : QString();
+    if (id.isEmpty()) return;
+    emit measurePicked(id.toStdString() == highlighted_ ? QString() : id);
+  });
+  followScheme(plot_, [this] {
+    colourFixedMarks();
+    rebuild();
+  });
+  colourFixedMarks();
   clear(tr("Run a sweep to see how each measure responds as A moves."));
+}
+
+// The cursor and θ₀ lines in the scheme's colours (curves take theirs in rebuild()).
+void SweepPlots::colourFixedMarks() {
+  const palette::Scheme s = palette::currentScheme();
+  const QPen refPen(palette::neutralMark(s), 1, Qt::DashDotLine);
+  refV_->setPen(refPen);
+  refS_->setPen(refPen);
+  const QPen cur(palette::cursor(s), 2.2);
+  cursorV_->setPen(cur);
+  cursorS_->setPen(cur);
+  QColor labelFill = palette::plotBackground(s);
+  labelFill.setAlpha(220);
+  cursorLabel_->setBrush(labelFill);
+  cursorLabel_->setColor(palette::cursor(s));
 }
 
 QCPItemStraightLine* SweepPlots::verticalLine(QCPAxisRect* rect, const QPen& pen) {
@@ -354,6 +383,8 @@ void SweepPlots::rebuild() {
       col.setAlphaF(0.25);
       pen.setColor(col);
     }
+    // The measure's marker about every eighth of the curve: a third cue besides colour and dash.
+    const QCPScatterStyle marker = measureMarker(c.id, pen, hiLite ? 7 : 6);
     QString name = QString::fromStdString(c.id);
     if (std::any_of(c.value.begin(), c.value.end(), [](double v) { return std::isinf(v); })) name += " (∞)";
     if (c.low.size() == c.theta.size() && c.high.size() == c.theta.size() && !c.theta.empty()) {
@@ -378,9 +409,11 @@ void SweepPlots::rebuild() {
       bottom->setChannelFillGraph(top);
       bottom->removeFromLegend();
     }
-    auto* g = plot_->addGraph(vx, vy);
+    auto* g = new MarkedGraph(vx, vy);
     g->setData(x, y, true);
     g->setPen(pen);
+    g->setScatterStyle(marker);
+    g->setScatterSkip(std::max(0, int(c.theta.size()) / 8 - 1));
     g->setName(name);
     g->setProperty("measure", QString::fromStdString(c.id));
     if (!c.low.empty()) g->setName(name + tr(" ±band"));
@@ -506,10 +539,14 @@ void SweepPlots::rebuild() {
     g->setScatterStyle(shape);
     g->setName(text);
   };
-  const QColor markGrey(90, 90, 90);
+  const QColor markGrey = palette::neutralMark(palette::currentScheme());
   if (anyJump) explain(tr("┃ top: jump"), QPen(markGrey, 2.2), QCPScatterStyle());
   if (anyUnresolved) explain(tr("┇ top: unresolved step"), QPen(markGrey, 1.4, Qt::DotLine), QCPScatterStyle());
-  if (anyFlat) explain(tr("shaded: flat"), QPen(QColor(90, 90, 90, 90), 6), QCPScatterStyle());
+  if (anyFlat) {
+    QColor shade = markGrey;
+    shade.setAlpha(90);
+    explain(tr("shaded: flat"), QPen(shade, 6), QCPScatterStyle());
+  }
   if (!clipMarks_.empty())
     explain(tr("▲▼ slope off the pane"), QPen(markGrey),
             QCPScatterStyle(QCPScatterStyle::ssTriangle, markGrey, markGrey, 6));
@@ -551,6 +588,7 @@ void SweepPlots::onPress(QMouseEvent* e) {
   if (e->button() != Qt::LeftButton) return;
   const QPoint p = e->position().toPoint();
   if (!values_->rect().contains(p) && !slopes_->rect().contains(p)) return;
+  if (plot_->legend->visible() && plot_->legend->outerRect().contains(p)) return;  // a legend click
   dragging_ = true;
   placeCursor(values_->axis(QCPAxis::atBottom)->pixelToCoord(e->position().x()), true);
 }

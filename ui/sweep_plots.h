@@ -62,6 +62,8 @@ class SweepPlots : public QWidget {
   bool stale() const { return stale_; }
 
  signals:
+  /// The user clicked a curve's legend entry: that measure ("" when it was already picked).
+  void measurePicked(const QString& id);
   /// The user dragged or clicked the cursor to θ (nullopt: released with a double-click).
   void thetaChanged(std::optional<double> theta);
 
@@ -70,6 +72,7 @@ class SweepPlots : public QWidget {
 
  private:
   void rebuild();
+  void colourFixedMarks();
   void fitLegend();
   void placeLegend();
   void onPress(QMouseEvent* e);

@@ -4,6 +4,7 @@
 //                           asking which side it replaces (as A in --screenshot mode)
 //   barrow --a A --b B      opens two cloud files as A and B
 //   barrow --screenshot out.png [--size WxH] [FILE]
+//   barrow --scheme dark|light|system   colour scheme (default: the system's palette)
 //                           renders the window once every pending computation (live
 //                           measures and the sweep) has finished, writes the PNG and exits
 #include <QApplication>
@@ -12,6 +13,7 @@
 #include <cstdio>
 
 #include "main_window.h"
+#include "palette.h"
 #include "session_files.h"
 #include "scenario/demo_scenario.h"
 
@@ -36,8 +38,19 @@ int main(int argc, char** argv) {
   QCommandLineOption cloudB("b", "Cloud file (CSV/.npy) to open as B (with --a).", "file");
   parser.addOption(cloudA);
   parser.addOption(cloudB);
+  QCommandLineOption scheme("scheme", "Colour scheme: dark, light or system (the default: follow the system's palette).",
+                            "scheme", "system");
+  parser.addOption(scheme);
   parser.addPositionalArgument("file", "A session (.json) or a cloud (CSV/.npy) to open.");
   parser.process(app);
+
+  const QString wanted = parser.value(scheme);
+  if (wanted != "system" && wanted != "dark" && wanted != "light") {
+    std::fprintf(stderr, "barrow: --scheme must be dark, light or system (got '%s')\n", wanted.toLocal8Bit().constData());
+    return 2;
+  }
+  if (wanted != "system")
+    barrow::ui::palette::applyScheme(wanted == "dark" ? barrow::ui::palette::Scheme::Dark : barrow::ui::palette::Scheme::Light);
 
   barrow::ui::MainWindow::Options options;
   options.screenshot = parser.isSet(shot);

@@ -43,7 +43,7 @@ std::string swatch(const std::string& id) {
   const std::string dash = report_palette::curveDash(k);
   return std::string("<svg class=\"swatch\" width=\"22\" height=\"10\" aria-hidden=\"true\"><line x1=\"1\" y1=\"5\" "
                      "x2=\"21\" y2=\"5\" stroke=\"") +
-         report_palette::kCurves[k % 8] + "\" stroke-width=\"2.4\"" +
+         report_palette::curveColor(k) + "\" stroke-width=\"2.4\"" +
          (dash.empty() ? "" : " stroke-dasharray=\"" + dash + "\"") + "/></svg>";
 }
 
@@ -256,7 +256,7 @@ ojson viewJson(const ReportInput& in) {
   v["colors"] = {{"A", report_palette::kCloudA}, {"B", report_palette::kCloudB}, {"plan", report_palette::kPlan},
                  {"jump", report_palette::kJump}, {"flat", report_palette::kFlat}};
   v["curves"] = report_palette::kCurves;
-  v["dashes"] = {report_palette::curveDash(0), report_palette::curveDash(8), report_palette::curveDash(16)};
+  v["dashes"] = report_palette::kDashes;
   return v;
 }
 

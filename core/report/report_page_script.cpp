@@ -46,7 +46,8 @@ const char* reportPageScript() {
   }
   function styleOf(id) {
     var k = view.rank[id] === undefined ? 0 : view.rank[id];
-    return { color: view.curves[k % 8], dash: view.dashes[Math.floor(k / 8) % 3] };
+    var n = view.curves.length;
+    return { color: view.curves[k % n], dash: view.dashes[Math.floor(k / n) % view.dashes.length] };
   }
   function swatch(id) {
     var s = styleOf(id);

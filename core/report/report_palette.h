@@ -1,7 +1,8 @@
 // The window's colours for the report page (no Qt in core, so the values are repeated here;
 // ui/palette.h is the source and a UI test checks the two agree): Okabe–Ito colours for A,
 // B, the plan and the curves (Okabe & Ito 2008 (mem)); the k-th measure in registry order
-// gets curve colour k mod 8, solid, then dashed, then dotted (as palette::curvePen).
+// gets curve colour k mod 5 and dash pattern (k / 5) mod 4, as palette::curvePen in the light
+// scheme (the page has a white background). The window's markers are not drawn here.
 #pragma once
 
 #include <array>
@@ -15,12 +16,10 @@ inline constexpr const char* kPlan = "#000000";
 inline constexpr const char* kJump = "#d55e00";
 inline constexpr const char* kFlat = "#56b4e9";
 inline constexpr const char* kInterpolation = "#009e73";
-inline constexpr std::array<const char*, 8> kCurves = {"#0072b2", "#d55e00", "#009e73", "#cc79a7",
-                                                       "#e69f00", "#56b4e9", "#000000", "#f0e442"};
-/// SVG stroke-dasharray of the k-th curve: "" (solid), dashed, dotted.
-inline std::string curveDash(std::size_t k) {
-  static const char* dashes[3] = {"", "6 4", "1.5 3"};
-  return dashes[(k / 8) % 3];
-}
+inline constexpr std::array<const char*, 5> kCurves = {"#0072b2", "#d55e00", "#009e73", "#cc79a7", "#000000"};
+/// SVG stroke-dasharray patterns: solid, dashed, dotted, dash-dotted.
+inline constexpr std::array<const char*, 4> kDashes = {"", "6 4", "1.5 3", "6 3 1.5 3"};
+inline std::string curveColor(std::size_t k) { return kCurves[k % kCurves.size()]; }
+inline std::string curveDash(std::size_t k) { return kDashes[(k / kCurves.size()) % kDashes.size()]; }
 
 }  // namespace barrow::report_palette

@@ -3,11 +3,13 @@
 // report's colours are the window's.
 #include <gtest/gtest.h>
 
+#include <map>
 #include <sstream>
 
 #include <QSignalSpy>
 #include <nlohmann/json.hpp>
 
+#include "measures/registry.h"
 #include "palette.h"
 #include "report/report_palette.h"
 #include "report_export.h"
@@ -95,8 +97,14 @@ TEST(ReportExportTest, RunsTheSweepWhenNoneIsCurrentAndCanBeCancelled) {
 
 // [D] ui/palette.h is the source of the report's colours: the curves in registry order, A, B.
 TEST(ReportExportTest, ReportColoursAreTheWindows) {
-  for (int k = 0; k < 8; ++k)
-    EXPECT_EQ(palette::curvePen(k).color().name().toStdString(), report_palette::kCurves[std::size_t(k)]) << k;
+  const std::map<Qt::PenStyle, std::string> svgDash = {
+      {Qt::SolidLine, ""}, {Qt::DashLine, "6 4"}, {Qt::DotLine, "1.5 3"}, {Qt::DashDotLine, "6 3 1.5 3"}};
+  for (std::size_t k = 0; k < MeasureRegistry::instance().all().size(); ++k) {
+    const QPen pen = palette::curvePen(int(k), 1.8, palette::Scheme::Light);  // the page is white
+    EXPECT_EQ(pen.color().name().toStdString(), report_palette::curveColor(k)) << k;
+    ASSERT_TRUE(svgDash.count(pen.style())) << k;
+    EXPECT_EQ(svgDash.at(pen.style()), report_palette::curveDash(k)) << k;
+  }
   EXPECT_EQ(palette::cloudA().name().toStdString(), report_palette::kCloudA);
   EXPECT_EQ(palette::cloudB().name().toStdString(), report_palette::kCloudB);
   EXPECT_EQ(palette::jump().name().toStdString(), report_palette::kJump);
