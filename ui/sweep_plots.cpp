@@ -157,8 +157,8 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
   values_ = plot_->axisRect();
   slopes_ = new QCPAxisRect(plot_);
   plot_->plotLayout()->addElement(1, 0, slopes_);
-  plot_->plotLayout()->setRowStretchFactor(0, 3);
-  plot_->plotLayout()->setRowStretchFactor(1, 2);
+  plot_->plotLayout()->setRowStretchFactor(0, 0.6);  // the slope pane's share can be dragged
+  plot_->plotLayout()->setRowStretchFactor(1, 0.4);
   plot_->plotLayout()->setRowSpacing(0);
   values_->setMargins(QMargins(0, 0, 0, 0));
   auto* group = new QCPMarginGroup(plot_);
@@ -187,7 +187,10 @@ SweepPlots::SweepPlots(QWidget* parent) : QWidget(parent), plot_(new QCustomPlot
 
   connect(plot_, &QCustomPlot::mousePress, this, &SweepPlots::onPress);
   connect(plot_, &QCustomPlot::mouseMove, this, &SweepPlots::onMove);
-  connect(plot_, &QCustomPlot::mouseRelease, this, [this] { dragging_ = false; });
+  connect(plot_, &QCustomPlot::mouseRelease, this, [this] {
+    dragging_ = false;
+    resizingPanes_ = false;
+  });
   connect(plot_, &QCustomPlot::mouseDoubleClick, this, [this] {
     setCursor(std::nullopt);
     emit thetaChanged(std::nullopt);
@@ -584,8 +587,30 @@ void SweepPlots::placeCursor(double theta, bool notify) {
   if (notify) emit thetaChanged(theta);
 }
 
+bool SweepPlots::onPaneBorder(const QPointF& px) const {
+  // The band between the value pane's bottom edge and the slope pane's top edge, 4 px either side.
+  const QRect v = values_->rect(), sl = slopes_->rect();
+  return px.x() >= v.left() && px.x() <= v.right() && px.y() >= v.bottom() - 4 && px.y() <= sl.top() + 4;
+}
+
+void SweepPlots::setValueShare(double share) {
+  share = std::clamp(share, 0.2, 0.85);
+  plot_->plotLayout()->setRowStretchFactor(0, share);
+  plot_->plotLayout()->setRowStretchFactor(1, 1.0 - share);
+  plot_->replot(QCustomPlot::rpQueuedReplot);
+}
+
+double SweepPlots::valueShare() const {
+  const double v = plot_->plotLayout()->rowStretchFactors().at(0), s = plot_->plotLayout()->rowStretchFactors().at(1);
+  return v / (v + s);
+}
+
 void SweepPlots::onPress(QMouseEvent* e) {
   if (e->button() != Qt::LeftButton) return;
+  if (onPaneBorder(e->position())) {
+    resizingPanes_ = true;
+    return;
+  }
   const QPoint p = e->position().toPoint();
   if (!values_->rect().contains(p) && !slopes_->rect().contains(p)) return;
   if (plot_->legend->visible() && plot_->legend->outerRect().contains(p)) return;  // a legend click
@@ -594,6 +619,13 @@ void SweepPlots::onPress(QMouseEvent* e) {
 }
 
 void SweepPlots::onMove(QMouseEvent* e) {
+  if (resizingPanes_ && (e->buttons() & Qt::LeftButton)) {
+    const double top = values_->outerRect().top(), bottom = slopes_->outerRect().bottom();
+    if (bottom > top) setValueShare((e->position().y() - top) / (bottom - top));
+    return;
+  }
+  if (onPaneBorder(e->position())) plot_->setCursor(Qt::SplitVCursor);
+  else plot_->unsetCursor();
   if (!dragging_ || !(e->buttons() & Qt::LeftButton)) {
     const QString tip = toolTipAt(e->position());
     if (tip.isEmpty()) QToolTip::hideText();

@@ -57,6 +57,10 @@ class SweepPlots : public QWidget {
   QString toolTipAt(const QPointF& px) const;
   /// Number of slope excursions beyond the slope pane marked on its edges.
   int clipMarkCount() const { return int(clipMarks_.size()); }
+  /// Share of the plots' height given to the value pane (the rest is the slope pane's); the
+  /// user sets it by dragging the border between the panes.
+  void setValueShare(double share);
+  double valueShare() const;
   /// Marks the curves as out of date (the clouds changed since the sweep).
   void setStale(bool stale);
   bool stale() const { return stale_; }
@@ -107,6 +111,8 @@ class SweepPlots : public QWidget {
   QString message_;
   bool normalised_ = true;
   bool dragging_ = false;
+  bool resizingPanes_ = false;  // the user drags the border between the value and slope panes
+  bool onPaneBorder(const QPointF& px) const;
   bool stale_ = false;
   std::string highlighted_;
   std::optional<double> cursor_;
