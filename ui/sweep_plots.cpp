@@ -597,6 +597,7 @@ void SweepPlots::setValueShare(double share) {
   share = std::clamp(share, 0.2, 0.85);
   plot_->plotLayout()->setRowStretchFactor(0, share);
   plot_->plotLayout()->setRowStretchFactor(1, 1.0 - share);
+  fitLegend();  // the legend's rows follow the value pane's new height
   plot_->replot(QCustomPlot::rpQueuedReplot);
 }
 
@@ -705,7 +706,20 @@ void SweepPlots::fitLegend() {
   QCPLegend* legend = plot_->legend;
   const int items = legend->itemCount();
   if (items == 0) return;
-  const int rowHeight = std::max(1, QFontMetrics(legend->font()).height() + legend->rowSpacing());
+  // A row is as tall as its item asks (text plus the item's margins); counting the font's height
+  // alone squeezed the rows until the underscores of kl_ab, kl_ba were cut off (seen at a device
+  // pixel ratio of 2).
+  // QCustomPlot clips each layerable one pixel above its rectangle, which took the underscore
+  // of kl_ab at a device pixel ratio of 2: every item gets two pixels of room below its text.
+  int itemHeight = QFontMetrics(legend->font()).height();
+  for (int i = 0; i < items; ++i) {
+    QCPAbstractLegendItem* item = legend->item(i);
+    if (!item) continue;
+    QMargins m = item->margins();
+    if (m.bottom() < 2) item->setMargins(QMargins(m.left(), m.top(), m.right(), 2));
+    itemHeight = std::max(itemHeight, item->minimumOuterSizeHint().height());
+  }
+  const int rowHeight = std::max(1, itemHeight + legend->rowSpacing());
   // The value pane's share of the height by the layout's row stretch, less its axis margins.
   const QList<double> stretch = plot_->plotLayout()->rowStretchFactors();
   const double share = stretch.size() >= 2 ? stretch[0] / (stretch[0] + stretch[1]) : 1.0;

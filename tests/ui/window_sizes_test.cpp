@@ -77,6 +77,18 @@ TEST_P(WindowSizesTest, NoMeasureNameIsElidedAndTheLegendIsInsideTheWindow) {
   EXPECT_TRUE(plots->rect().contains(legend)) << legend.x() << "," << legend.y() << " " << legend.width() << "x"
                                               << legend.height() << " in " << plots->width() << "x" << plots->height();
   EXPECT_TRUE(w->rect().contains(QRect(plots->mapTo(w.get(), legend.topLeft()), legend.size())));
+  // No legend row is squeezed below the height its text asks for (a squeezed row cuts off the
+  // underscore of kl_ab: each item is clipped to its own rectangle).
+  for (int i = 0; i < plots->legend->itemCount(); ++i) {
+    QCPAbstractLegendItem* item = plots->legend->item(i);
+    if (!item) continue;
+    EXPECT_GE(item->outerRect().height(), item->minimumOuterSizeHint().height()) << "legend row " << i;
+    // QCustomPlot draws a layerable clipped to its outer rectangle moved up by one pixel (seen in
+    // its QCPLayer::draw) (mem): the text's full line height, descent and underscore included,
+    // must end inside that clip.
+    const int textBottom = item->rect().top() + QFontMetrics(item->font()).height() - 1;
+    EXPECT_LE(textBottom, item->outerRect().bottom() - 1) << "legend row " << i << " loses its underscore";
+  }
 }
 
 INSTANTIATE_TEST_SUITE_P(Sizes, WindowSizesTest,
