@@ -263,6 +263,15 @@ void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
     showDetails(cur->data(kName, kIdRole).toString().toStdString());
 }
 
+void MeasuresPanel::changeEvent(QEvent* e) {
+  QWidget::changeEvent(e);
+  if (e->type() != QEvent::PaletteChange) return;
+  for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
+    QTreeWidgetItem* item = tree_->topLevelItem(r);
+    item->setIcon(kName, measureIcon(item->data(kName, kIdRole).toString().toStdString()));
+  }
+}
+
 void MeasuresPanel::resizeEvent(QResizeEvent* e) {
   QWidget::resizeEvent(e);
   fitColumns();

@@ -60,6 +60,7 @@ class MeasuresPanel : public QWidget {
 
  protected:
   void resizeEvent(QResizeEvent* e) override;
+  void changeEvent(QEvent* e) override;  // a new colour scheme redraws the series icons
 
  private:
   // Hides the Time column when the pane is too narrow for the measure names beside it

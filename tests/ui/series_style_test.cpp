@@ -9,6 +9,7 @@
 #include <QImage>
 #include <QPalette>
 #include <QTest>
+#include <QTreeWidget>
 #include <cmath>
 #include <iomanip>
 #include <iostream>
@@ -17,6 +18,7 @@
 #include <tuple>
 
 #include "measure_style.h"
+#include "measures_panel.h"
 #include "measures/registry.h"
 #include "palette.h"
 #include "field_panel.h"
@@ -222,6 +224,14 @@ TEST(SeriesStyleTest, SwitchingSchemeWhileOpenRecoloursPlotsAndVerdicts) {
     for (int r = 0; r < t->rowCount(); ++r) {
       const QColor c = t->item(r, 1)->foreground().color();
       EXPECT_TRUE(c == palette::goodText(s) || c == palette::warnText(s)) << name(s) << " row " << r;
+    }
+    // The Measures table's series icons follow the scheme too.
+    auto* tree = w->measures()->findChild<QTreeWidget*>("measuresTable");
+    ASSERT_NE(tree, nullptr);
+    for (int r = 0; r < tree->topLevelItemCount(); ++r) {
+      QTreeWidgetItem* it = tree->topLevelItem(r);
+      const std::string id = it->text(0).section(QStringLiteral(" — "), 0, 0).toStdString();
+      EXPECT_EQ(it->icon(0).pixmap(16, 16).toImage(), measureIcon(id).pixmap(16, 16).toImage()) << name(s) << " " << id;
     }
   }
 }
