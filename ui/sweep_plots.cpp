@@ -416,7 +416,7 @@ void SweepPlots::rebuild() {
     g->setData(x, y, true);
     g->setPen(pen);
     g->setScatterStyle(marker);
-    g->setScatterSkip(std::max(0, int(c.theta.size()) / 8 - 1));
+    g->setMarkerPhase(double(s) / double(curves_.size()));  // markers of different curves side by side
     g->setName(name);
     g->setProperty("measure", QString::fromStdString(c.id));
     if (!c.low.empty()) g->setName(name + tr(" ±band"));
