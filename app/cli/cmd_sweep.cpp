@@ -5,10 +5,14 @@
 #include <unistd.h>
 
 #include <cstdio>
+#include <cstdlib>
 #include <mutex>
 
 #include "base/number_text.h"
 #include "cli/cli_common.h"
+#include "cli/interrupt.h"
+#include "cli/progress_line.h"
+#include "measures/time_estimate.h"
 #include "cli/commands.h"
 #include "cli/resampling_cli.h"
 #include "families/family_map.h"
@@ -76,22 +80,18 @@ SweepResult sweepFromArgs(const CliArgs& args) {
 
 SweepResult runSweepWithProgress(const Cloud& a, const Cloud& b, const SweepRequest& req) {
   RunControl control;
-  int shown = -1;
-  std::mutex mutex;
-  const bool terminal = isatty(STDERR_FILENO);
-  if (terminal)
-    control.onProgress = [&](double f) {
-      const int percent = int(f * 100);
-      std::lock_guard<std::mutex> lock(mutex);
-      if (percent / 10 != shown / 10) {
-        shown = percent;
-        std::fprintf(stderr, "\rsweeping: %3d%%", percent);
-        std::fflush(stderr);
-      }
-      return true;
-    };
+  control.cancel = interruptFlag();  // Ctrl+C: stop, write nothing (a partial sweep would mislead)
+  ProgressLine progress;
+  control.onProgress = [&](double f) {
+    progress.show("sweeping", f);
+    return true;
+  };
   SweepResult r = barrow::runSweep(a, b, req, &control);
-  if (terminal && shown >= 0) std::fprintf(stderr, "\rsweeping: done\n");
+  progress.finish("sweeping: done in " + estimateText(progress.elapsed()));
+  if (interrupted()) {
+    std::fprintf(stderr, "barrow-cli: interrupted; nothing written\n");
+    std::exit(kExitInterrupted);
+  }
   if (r.theta.empty()) throw InputError{r.message};
   return r;
 }

@@ -1,0 +1,90 @@
+#include "measures/time_estimate.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <map>
+
+#include "base/run_control.h"
+
+namespace barrow {
+namespace {
+
+enum class Growth { Pairs, PooledPairs, Simplex, Sinkhorn, SortedProjections, Linear, TreeQueries, Fixed };
+
+struct Model {
+  Growth growth;
+  double perUnit;     // seconds per unit of the growth term, on 2 threads of the reference machine
+  bool parallel;      // true when the measure's inner loops use every thread it is given
+};
+
+// Constants: time at 10^4 + 10^4 points (uniform clouds shifted apart, default settings) divided
+// by the growth term at that size, measured with `barrow-cli measure` on the reference machine
+// (tests/bench/RESULTS-estimates.md). The exact solvers' exponent comes from the same runs at
+// 10^4 and 5·10^4 points.
+const std::map<std::string, Model>& models() {
+  static const std::map<std::string, Model> m = {
+      {"w1", {Growth::Simplex, 1.9 / std::pow(1e8, 1.09), true}},
+      {"w2", {Growth::Simplex, 0.6 / std::pow(1e8, 1.09), true}},
+      {"entropic", {Growth::Pairs, 9.6 / 1e8, true}},
+      {"sinkhorn", {Growth::Sinkhorn, 15.0 / 1.53e8, true}},
+      {"sliced", {Growth::SortedProjections, 0.045 / (2e4 * std::log2(1e4)), true}},
+      {"mmd", {Growth::PooledPairs, 0.37 / 2e8, true}},
+      {"energy", {Growth::PooledPairs, 0.062 / 2e8, true}},
+      {"frechet", {Growth::Linear, 1e-3 / 2e4, false}},
+      {"chamfer", {Growth::TreeQueries, 0.01 / (2e4 * std::log2(1e4)), true}},
+      {"hausdorff", {Growth::TreeQueries, 0.01 / (2e4 * std::log2(1e4)), true}},
+      {"kl_ab", {Growth::TreeQueries, 0.005 / (2e4 * std::log2(1e4)), true}},
+      {"kl_ba", {Growth::TreeQueries, 0.005 / (2e4 * std::log2(1e4)), true}},
+      {"js", {Growth::TreeQueries, 0.005 / (2e4 * std::log2(1e4)), true}},
+      {"tv", {Growth::TreeQueries, 0.005 / (2e4 * std::log2(1e4)), true}},
+      {"hellinger", {Growth::TreeQueries, 0.005 / (2e4 * std::log2(1e4)), true}},
+      // The critics train a fixed number of steps on fixed batches, then solve W1 exactly for
+      // their comparison value: a constant plus the W1 model.
+      {"critic_clip", {Growth::Fixed, 1.4, false}},
+      {"critic_gp", {Growth::Fixed, 2.8, false}},
+      {"critic_sn", {Growth::Fixed, 1.4, false}},
+  };
+  return m;
+}
+
+double growthTerm(Growth g, double na, double nb) {
+  const double n = na + nb;
+  switch (g) {
+    case Growth::Pairs: return na * nb;
+    case Growth::PooledPairs: return 0.5 * n * n;  // A–A, B–B and A–B pairs of the pooled sample
+    case Growth::Simplex: return std::pow(na * nb, 1.09);
+    case Growth::Sinkhorn: return na * nb + 0.53 * 0.5 * (na * na + nb * nb);
+    case Growth::SortedProjections: return n * std::log2(std::max(2.0, std::max(na, nb)));
+    case Growth::Linear: return n;
+    case Growth::TreeQueries: return n * std::log2(std::max(2.0, std::max(na, nb)));
+    case Growth::Fixed: return 1.0;
+  }
+  return 0.0;
+}
+
+}  // namespace
+
+std::optional<TimeEstimate> estimateTime(const std::string& id, std::size_t na, std::size_t nb, int threads) {
+  const auto it = models().find(id);
+  if (it == models().end()) return std::nullopt;
+  const Model& m = it->second;
+  double s = m.perUnit * growthTerm(m.growth, double(na), double(nb));
+  if (id.rfind("critic_", 0) == 0) s += estimateTime("w1", na, nb, threads)->seconds;
+  // The constants hold for 2 threads; a parallel measure given t threads takes about 2/t of it.
+  const int t = threads > 0 ? threads : defaultThreadCount();
+  if (m.parallel) s *= 2.0 / double(std::max(1, t));
+  static const char* names[] = {"n·m", "(n+m)²/2", "(n·m)^1.09", "n·m + (n²+m²)/4", "K·(n+m)·log n", "n+m", "(n+m)·log n", "fixed"};
+  return TimeEstimate{s, names[int(m.growth)]};
+}
+
+std::string estimateText(double seconds) {
+  char buf[32];
+  if (seconds < 1.0) std::snprintf(buf, sizeof buf, "%.1f s", seconds);
+  else if (seconds < 90.0) std::snprintf(buf, sizeof buf, "%.0f s", seconds);
+  else if (seconds < 5400.0) std::snprintf(buf, sizeof buf, "%.0f min", seconds / 60.0);
+  else std::snprintf(buf, sizeof buf, "%.1f h", seconds / 3600.0);
+  return buf;
+}
+
+}  // namespace barrow
