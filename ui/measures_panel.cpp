@@ -13,6 +13,7 @@
 
 #include "measure_style.h"
 #include "base/param_text.h"
+#include "measures/time_estimate.h"
 #include "measures/units.h"
 #include "param_editor.h"
 #include "result_text.h"
@@ -257,8 +258,21 @@ void MeasuresPanel::applyUpdate(const LiveUpdate& u) {
     if (r.status == Status::InvalidInput || r.status == Status::NotConverged)
       row->setForeground(kStatus, QColor(213, 94, 0));
   }
+  // A measure still running says how long it may take when that is more than a second (the
+  // CLI's forecast, measures/time_estimate.h), so a slow one on large clouds is not a mystery.
+  const std::size_t na = doc_->session().a.size(), nb = doc_->session().b.size();
   for (const auto& id : u.pending)
-    if (QTreeWidgetItem* row = rowOf(id)) row->setText(kStatus, tr("updating…"));
+    if (QTreeWidgetItem* row = rowOf(id)) {
+      const auto e = estimateTime(id, na, nb, 0);
+      const bool say = e && e->seconds >= 1.0;
+      row->setText(kStatus, say ? tr("updating… ~%1").arg(QString::fromStdString(estimateText(e->seconds))) : tr("updating…"));
+      row->setToolTip(kStatus, say ? tr("Still computing; forecast about %1 for %2 + %3 points (grows as %4)")
+                                         .arg(QString::fromStdString(estimateText(e->seconds)))
+                                         .arg(na)
+                                         .arg(nb)
+                                         .arg(QString::fromStdString(e->growth))
+                                   : tr("Still computing"));
+    }
   if (QTreeWidgetItem* cur = tree_->currentItem())
     showDetails(cur->data(kName, kIdRole).toString().toStdString());
 }
