@@ -42,7 +42,7 @@ double CloudLayer::markerSize(Eigen::Index i) const {
   // Area proportional to the share of mass: diameter ∝ sqrt(share). Clamped so that a
   // zero-weight point stays visible and a heavy one does not hide the rest.
   const double s = share_.size() > i ? share_(i) : 1.0;
-  return std::clamp(baseSize_ * std::sqrt(std::max(s, 0.0)), 3.0, 5.0 * baseSize_);
+  return std::clamp(baseSize_ * crowdScale_ * std::sqrt(std::max(s, 0.0)), 3.0, 5.0 * baseSize_);
 }
 
 int CloudLayer::pointAt(const QPointF& pos, double radiusPx) const {
@@ -96,8 +96,9 @@ const QPixmap& CloudLayer::markerPixmap(double size, double dpr) {
   QPainter p(&pm);
   p.setRenderHint(QPainter::Antialiasing);
   QColor fill = color_;
-  fill.setAlphaF(hollow_ ? 0.0 : 0.78);
-  p.setPen(QPen(hollow_ ? color_ : color_.darker(135), hollow_ ? 1.2 : 0.8));
+  fill.setAlphaF(hollow_ ? 0.0 : alpha_);
+  if (hollow_ || outlined_) p.setPen(QPen(hollow_ ? ringColor() : color_.darker(135), hollow_ ? 1.2 : 0.8));
+  else p.setPen(Qt::NoPen);
   p.setBrush(hollow_ ? Qt::NoBrush : QBrush(fill));
   drawMarker(&p, QPointF(side / 2.0, side / 2.0), s);
   return sprites_.emplace(key, pm).first->second;
@@ -128,14 +129,58 @@ void CloudLayer::drawMarker(QPainter* painter, const QPointF& c, double size) co
   }
 }
 
+constexpr Eigen::Index kCrowd = 1000;
+
+void CloudLayer::adaptToCrowd() {
+  // Coverage: how many markers of the base size land on an average pixel of the cloud's
+  // on-screen extent. Above about one, opaque markers hide whatever was drawn before (the
+  // other cloud); the fill is made faint enough that all markers over a pixel together
+  // cover about 60 % of it, and markers shrink (to half) from 2 000 points on; clouds of up to
+  // kCrowd points are drawn as before [CP].
+  const QRectF clip = clipRect();
+  double left = INFINITY, right = -INFINITY, top = INFINITY, bottom = -INFINITY;
+  Eigen::Index visible = 0;
+  for (Eigen::Index i = 0; i < points_.rows(); ++i) {
+    const QPointF p = coordsToPixels(points_(i, 0), points_(i, 1));
+    if (!clip.contains(p)) continue;
+    ++visible;
+    left = std::min(left, p.x());
+    right = std::max(right, p.x());
+    top = std::min(top, p.y());
+    bottom = std::max(bottom, p.y());
+  }
+  const double scale = visible > 2000 ? std::max(0.5, std::sqrt(2000.0 / double(visible))) : 1.0;
+  double alpha = 0.78;
+  if (visible > kCrowd) {  // a few hundred points keep their look, however tightly packed
+    const double d = std::max(3.0, baseSize_ * scale);
+    const double area = std::max(1.0, (right - left + d) * (bottom - top + d));
+    const double coverage = double(visible) * 0.785 * d * d / area;
+    alpha = std::clamp(0.6 / coverage, 0.05, 0.78);
+  }
+  alpha = std::round(alpha * 64.0) / 64.0;  // a few sprite sets, not one per frame
+  const bool outlined = visible <= kCrowd;
+  if (alpha != alpha_ || scale != crowdScale_ || outlined != outlined_) sprites_.clear();
+  alpha_ = alpha;
+  crowdScale_ = scale;
+  outlined_ = outlined;
+}
+
+QColor CloudLayer::ringColor() const {
+  // Hollow rings (the unmoved A) fade with the crowd like the fills, a little less.
+  QColor c = color_;
+  c.setAlphaF(std::min(1.0, alpha_ / 0.78 * 1.2));
+  return c;
+}
+
 void CloudLayer::draw(QCPPainter* painter) {
   if (points_.rows() == 0) return;
   applyDefaultAntialiasingHint(painter);
+  adaptToCrowd();
   const QRectF clip = clipRect().adjusted(-20, -20, 20, 20);
   QColor fill = color_;
-  fill.setAlphaF(hollow_ ? 0.0 : 0.78);
-  const QPen outline(hollow_ ? color_ : color_.darker(135), hollow_ ? 1.2 : 0.8);
-  painter->setPen(outline);
+  fill.setAlphaF(hollow_ ? 0.0 : alpha_);
+  const QPen outline(hollow_ ? ringColor() : color_.darker(135), hollow_ ? 1.2 : 0.8);
+  painter->setPen(hollow_ || outlined_ ? outline : QPen(Qt::NoPen));
   painter->setBrush(hollow_ ? Qt::NoBrush : QBrush(fill));
   // On screen, stamp pre-rendered markers (several times faster for thousands of points);
   // in vector exports (PDF, SVG) draw real shapes.

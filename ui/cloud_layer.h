@@ -1,6 +1,6 @@
 // Draws one weighted cloud on a QCustomPlot: one marker per point, its area proportional to
 // the point's share of the cloud's mass (uniform weights give the base size), selected
-// points ringed. Faster than one QCPGraph per size class and keeps indices aligned with the
+// points ringed. Thousands of points get smaller, translucent markers (adaptToCrowd). Faster than one QCPGraph per size class and keeps indices aligned with the
 // cloud, which the editing tools rely on.
 #pragma once
 
@@ -33,6 +33,9 @@ class CloudLayer : public QCPAbstractPlottable {
   int pointAt(const QPointF& pos, double radiusPx) const;
   /// Marker diameter in pixels for point i.
   double markerSize(Eigen::Index i) const;
+  /// Opacity of the marker fill at the last draw: 0.78 for a few hundred points, lower when the
+  /// markers would cover each pixel of the cloud several times over (see draw()).
+  double fillAlpha() const { return alpha_; }
 
   double selectTest(const QPointF& pos, bool onlySelectable, QVariant* details = nullptr) const override;
   QCPRange getKeyRange(bool& foundRange, QCP::SignDomain inSignDomain = QCP::sdBoth) const override;
@@ -47,6 +50,11 @@ class CloudLayer : public QCPAbstractPlottable {
   void drawMarker(QPainter* painter, const QPointF& c, double size) const;
   /// A pre-rendered marker of this diameter (screen drawing; vector exports draw shapes).
   const QPixmap& markerPixmap(double size, double dpr);
+  /// Marker scale and fill opacity for the points now on screen: large clouds get smaller,
+  /// fainter markers without outlines, so a cloud drawn first still shows through one drawn
+  /// over it and dense regions read as denser.
+  void adaptToCrowd();
+  QColor ringColor() const;
 
   Eigen::MatrixX2d points_;
   Eigen::VectorXd share_;  // weight × n / total: 1 for uniform weights
@@ -58,6 +66,9 @@ class CloudLayer : public QCPAbstractPlottable {
   bool hollow_ = false;
   std::map<int, QPixmap> sprites_;  // by diameter in quarter pixels
   double spriteDpr_ = 0;
+  double alpha_ = 0.78;
+  double crowdScale_ = 1.0;
+  bool outlined_ = true;
 };
 
 }  // namespace barrow::ui

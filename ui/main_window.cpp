@@ -96,6 +96,7 @@ MainWindow::MainWindow(const Options& options, QWidget* parent)
   });
   connect(doc_, &SessionDocument::paramsChanged, this, &MainWindow::scheduleLive);
   connect(doc_, &SessionDocument::sweepChanged, this, &MainWindow::scheduleLive);
+  connect(doc_, &SessionDocument::selectionChanged, this, &MainWindow::scheduleLive);
   connect(doc_, &SessionDocument::modifiedChanged, this, &MainWindow::updateTitle);
   connect(doc_, &SessionDocument::pathChanged, this, &MainWindow::updateTitle);
   connect(field_, &FieldPanel::overlaysChanged, this, &MainWindow::scheduleLive);
@@ -466,9 +467,18 @@ void MainWindow::submitLive() {
   req.a = s.a;
   req.b = s.b;
   req.params = s.params;
-  req.measures = MeasureRegistry::instance().defaults();
+  // Only the ticked measures: on clouds of 10^4 points one unticked entropic solve would keep
+  // every edit waiting for tens of seconds (issue 13). An empty selection means all.
   req.planId = field_->planId();
   req.entropicPlan = field_->entropicPlanShown();
+  // The measures behind a plan or map on the Field are computed too, ticked or not.
+  auto drawn = [&](const std::string& id) {
+    return id == req.planId || (req.entropicPlan && id == "entropic") || (field_->potentialShown() && id == "w1");
+  };
+  for (const Measure* m : MeasureRegistry::instance().defaults())
+    if (s.selected.empty() || drawn(m->id()) ||
+        std::find(s.selected.begin(), s.selected.end(), m->id()) != s.selected.end())
+      req.measures.push_back(m);
   req.interactive = doc_->previewing() || sweep_->plots()->dragging();
   if (field_->potentialShown()) req.potential = field_->view()->potentialGrid();
   if (!s.sweep.validate()) {

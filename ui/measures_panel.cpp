@@ -235,9 +235,20 @@ void MeasuresPanel::refreshSelection() {
 }
 
 void MeasuresPanel::markUpdating() {
+  const auto& sel = doc_->session().selected;
   for (int r = 0; r < tree_->topLevelItemCount(); ++r) {
     QTreeWidgetItem* it = tree_->topLevelItem(r);
-    if (it->data(kName, kIdRole).toString().isEmpty()) continue;
+    const std::string id = it->data(kName, kIdRole).toString().toStdString();
+    if (id.empty()) continue;
+    if (!sel.empty() && std::find(sel.begin(), sel.end(), id) == sel.end()) {
+      // Unticked: not computed (the window evaluates only the ticked measures).
+      results_.erase(id);
+      references_.erase(id);
+      for (int c : {kValue, kChange, kTime}) it->setText(c, QString());
+      it->setText(kStatus, tr("off"));
+      it->setToolTip(kStatus, tr("Not computed: tick the box to compute this measure"));
+      continue;
+    }
     for (int c = kValue; c < kInterval; ++c) it->setForeground(c, QColor(120, 120, 120));
   }
 }
