@@ -118,6 +118,22 @@ TEST(ValueOrderTest, SortedReversedAndSawtoothInputs) {
   }
 }
 
+// A far outlier bunches everything else into a sliver of [min, max]: the linear key would
+// tie them all, so the float key takes over; a milder outlier keeps the linear key with
+// longer ties. Both must still give the exact order.
+TEST(ValueOrderTest, FarAndNearOutliers) {
+  std::mt19937_64 rng(8);
+  std::normal_distribution<double> g(0.0, 1.0);
+  for (int n : kSizes) {
+    for (double outlier : {1e12, -1e9, 300.0}) {
+      std::vector<double> v(static_cast<std::size_t>(n));
+      for (double& x : v) x = 1e-3 * g(rng);
+      for (std::size_t k = 0; k < v.size(); k += 997) v[k] = outlier;
+      expectSameOrder(v, "outliers");
+    }
+  }
+}
+
 // Scratch buffers reused across calls of different sizes leave no trace in the result.
 TEST(ValueOrderTest, ReusedScratchGivesTheSameOrder) {
   std::mt19937_64 rng(6);
