@@ -8,9 +8,11 @@
 //   BM_LoadNpy/n    '<f8' (n, 3), C order, as formatCloudNpy writes it
 #include <benchmark/benchmark.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <random>
 #include <stdexcept>
+#include <vector>
 
 #include "io/cloud_file.h"
 
@@ -30,12 +32,23 @@ Cloud gaussianCloud(int n, unsigned seed) {
   return Cloud("c", p, wt);
 }
 
+// The files this run wrote (up to ~90 MB), removed when the program ends.
+struct WrittenFiles {
+  std::vector<std::filesystem::path> paths;
+  ~WrittenFiles() {
+    std::error_code ec;
+    for (const auto& p : paths) std::filesystem::remove(p, ec);
+  }
+} written;
+
 // Written once per (size, extension) and kept for the rest of the run.
 std::string fileFor(int n, const std::string& ext) {
   const auto path = std::filesystem::temp_directory_path() /
                     ("barrow_bench_load_" + std::to_string(n) + ext);
-  if (!std::filesystem::exists(path))
+  if (std::find(written.paths.begin(), written.paths.end(), path) == written.paths.end()) {
     if (auto err = writeCloudFile(path.string(), gaussianCloud(n, 7))) throw std::runtime_error(*err);
+    written.paths.push_back(path);
+  }
   return path.string();
 }
 
