@@ -1,7 +1,9 @@
 #include "io/csv_io.h"
 
 #include <algorithm>
+#include <array>
 #include <cctype>
+#include <charconv>
 #include <cmath>
 #include <cstdio>
 #include <string_view>
@@ -9,6 +11,8 @@
 
 #include "base/params.h"
 #include "io/atomic_write.h"
+#include "io/file_block.h"
+#include "io/page_prefault.h"
 
 namespace barrow {
 
@@ -32,16 +36,28 @@ char detectDelimiter(std::string_view line) {
   return ' ';
 }
 
-// Fields of one line, as views into it. Stops after `maxFields` + 1 fields so that a line of
-// millions of fields costs no more than a short one; `count` still gets the true number of
-// fields (counted without storing them) for the message.
-std::vector<std::string_view> splitFields(std::string_view line, char delim, std::size_t maxFields,
-                                          std::size_t* count) {
-  std::vector<std::string_view> out;
-  std::size_t n = 0;
+// The first few fields of one line, as views into it, and how many fields it has in all.
+// Only `maxFields` + 1 are kept (no allocation per line), so that a line of millions of fields
+// costs no more than a short one; `count` is still the true number, for the message.
+struct LineFields {
+  static constexpr std::size_t kKept = 4;
+  std::array<std::string_view, kKept> kept;
+  std::size_t stored = 0;
+  std::size_t count = 0;
+
+  const std::string_view* begin() const { return kept.data(); }
+  const std::string_view* end() const { return kept.data() + stored; }
+  std::size_t size() const { return stored; }
+  std::string_view operator[](std::size_t k) const { return kept[k]; }
+};
+
+void splitFields(std::string_view line, char delim, std::size_t maxFields, LineFields& out) {
+  out.stored = 0;
+  out.count = 0;
+  const std::size_t limit = std::min(maxFields + 1, LineFields::kKept);
   auto keep = [&](std::string_view f) {
-    if (out.size() <= maxFields) out.push_back(f);
-    ++n;
+    if (out.stored < limit) out.kept[out.stored++] = f;
+    ++out.count;
   };
   if (delim == ' ') {
     std::size_t i = 0;
@@ -62,8 +78,6 @@ std::vector<std::string_view> splitFields(std::string_view line, char delim, std
       start = k + 1;
     }
   }
-  *count = n;
-  return out;
 }
 
 // A field shown in a message: at most 40 characters, so a 100 MB field is not echoed back.
@@ -83,10 +97,31 @@ constexpr std::size_t kMaxNumberText = 400;
 
 std::optional<double> fieldNumber(std::string_view f) {
   if (f.size() > kMaxNumberText) return std::nullopt;
+  // Fast path: when std::from_chars reads the whole field (one leading '+' dropped, as
+  // parseNumber does) it has read exactly the text parseNumber would read, so the value is
+  // the same; anything else (blanks, words, inf/nan spellings, out of range) takes
+  // parseNumber's own path.
+  std::string_view t = f;
+  if (!t.empty() && t.front() == '+') t.remove_prefix(1);
+  double v = 0;
+  const auto [end, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
+  if (ec == std::errc() && end == t.data() + t.size() && !t.empty()) return v;
   return parseNumber(std::string(f));
 }
 
 const char* kColumnNames[3] = {"x", "y", "w"};
+
+// Why a data field cannot be used (it did not read as a number, or read as NaN, infinite, or
+// a negative weight): "column 3 (w): weight -1 is negative". Only built for the failing field.
+std::string fieldProblem(int role, int fieldIndex, std::string_view f, const std::optional<double>& num) {
+  const std::string col = std::string("column ") + std::to_string(fieldIndex + 1) + " (" + kColumnNames[role] + ")";
+  if (!num)
+    return col + ": " + quoted(f) + " " +
+           (f.size() > kMaxNumberText ? std::string("is too long to be a number") : notNumberReason(std::string(f)));
+  if (std::isnan(*num)) return col + ": value is NaN";
+  if (std::isinf(*num)) return col + ": value is infinite";
+  return col + ": weight " + shown(f) + " is negative";
+}
 
 }  // namespace
 
@@ -97,7 +132,7 @@ std::string fileStem(const std::string& path) {
   return dot == std::string::npos || dot == 0 ? base : base.substr(0, dot);
 }
 
-Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) {
+Loaded<Cloud> parseCloudCsv(std::string_view textIn, const std::string& file) {
   auto fail = [&](int line, std::string why) {
     return Loaded<Cloud>::fail(LoadError{file, line, "", std::move(why)});
   };
@@ -110,6 +145,18 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
   int order[3] = {0, 1, 2};  // field index of x, y, w
   bool headerAllowed = true;
   std::vector<double> xs, ys, ws;
+  LineFields fields;
+  {
+    // At most one row per line, and a row takes at least 4 bytes ("1 2" and its line end):
+    // reserving that avoids regrowing (and re-faulting) the columns of a million-row file,
+    // and never exceeds what a file of this size could really hold.
+    const auto lines = std::size_t(std::count(text.begin(), text.end(), '\n')) + 1;
+    const std::size_t rows = std::min(lines, text.size() / 4 + 1);
+    for (std::vector<double>* column : {&xs, &ys, &ws}) {
+      column->reserve(rows);
+      prefaultForWrite(column->data(), rows * sizeof(double));
+    }
+  }
 
   std::size_t pos = 0;
   int lineNo = 0;
@@ -126,8 +173,8 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
       continue;
     }
     if (!delim) delim = detectDelimiter(line);
-    std::size_t fieldCount = 0;
-    const auto fields = splitFields(line, delim, 3, &fieldCount);
+    splitFields(line, delim, 3, fields);
+    const std::size_t fieldCount = fields.count;
 
     // A header is a first row in which some field is not a number.
     if (headerAllowed) {
@@ -174,15 +221,8 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
     for (int role = 0; role < columns; ++role) {
       const std::string_view f = fields[std::size_t(order[role])];
       const auto num = fieldNumber(f);
-      const std::string col = std::string("column ") + std::to_string(order[role] + 1) + " (" +
-                              kColumnNames[role] + ")";
-      if (!num)
-        return fail(lineNo, col + ": " + quoted(f) + " " +
-                                (f.size() > kMaxNumberText ? std::string("is too long to be a number")
-                                                           : notNumberReason(std::string(f))));
-      if (std::isnan(*num)) return fail(lineNo, col + ": value is NaN");
-      if (std::isinf(*num)) return fail(lineNo, col + ": value is infinite");
-      if (role == 2 && *num < 0) return fail(lineNo, col + ": weight " + shown(f) + " is negative");
+      if (!num || !std::isfinite(*num) || (role == 2 && *num < 0))
+        return fail(lineNo, fieldProblem(role, order[role], f, num));
       v[role] = *num;
     }
     xs.push_back(v[0]);
@@ -197,6 +237,8 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
   c.name = fileStem(file);
   c.points.resize(Eigen::Index(xs.size()), 2);
   c.weights.resize(Eigen::Index(xs.size()));
+  prefaultForWrite(c.points.data(), xs.size() * 2 * sizeof(double));
+  prefaultForWrite(c.weights.data(), xs.size() * sizeof(double));
   for (std::size_t i = 0; i < xs.size(); ++i) {
     c.points(Eigen::Index(i), 0) = xs[i];
     c.points(Eigen::Index(i), 1) = ys[i];
@@ -208,9 +250,9 @@ Loaded<Cloud> parseCloudCsv(const std::string& textIn, const std::string& file) 
 
 Loaded<Cloud> readCloudCsv(const std::string& path) {
   std::string why;
-  const auto text = readWholeFile(path, &why);
-  if (!text) return Loaded<Cloud>::fail(LoadError{path, 0, "", "cannot open: " + why});
-  return parseCloudCsv(*text, path);
+  const auto block = FileBlock::read(path, &why);
+  if (!block) return Loaded<Cloud>::fail(LoadError{path, 0, "", "cannot open: " + why});
+  return parseCloudCsv(block->text(), path);
 }
 
 std::string formatCloudCsv(const Cloud& c) {

@@ -4,6 +4,7 @@
 
 #include <optional>
 #include <string>
+#include <string_view>
 
 #include "cloud/cloud.h"
 #include "io/load_error.h"
@@ -11,7 +12,7 @@
 namespace barrow {
 
 /// Parses CSV text; `file` is only used in messages. Without a w column weights are uniform.
-Loaded<Cloud> parseCloudCsv(const std::string& text, const std::string& file);
+Loaded<Cloud> parseCloudCsv(std::string_view text, const std::string& file);
 /// Reads a file; the cloud is named after the file's stem.
 Loaded<Cloud> readCloudCsv(const std::string& path);
 

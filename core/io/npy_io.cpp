@@ -8,6 +8,8 @@
 #include <vector>
 
 #include "io/atomic_write.h"
+#include "io/file_block.h"
+#include "io/page_prefault.h"
 #include "io/csv_io.h"
 
 namespace barrow {
@@ -90,7 +92,7 @@ std::string shortened(const std::string& v) {
 
 }  // namespace
 
-Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
+Loaded<Cloud> parseCloudNpy(std::string_view bytes, const std::string& file) {
   auto fail = [&](std::string field, std::string why) {
     return Loaded<Cloud>::fail(LoadError{file, 0, std::move(field), std::move(why)});
   };
@@ -116,7 +118,7 @@ Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
                               std::to_string(kMaxHeader) + "-byte limit");
   if (offset + headerLen > bytes.size())
     return fail("header", "file truncated inside the header");
-  const std::string header = bytes.substr(offset, headerLen);
+  const std::string header(bytes.substr(offset, headerLen));
   offset += headerLen;
 
   const auto descr = dictValue(header, "descr");
@@ -168,22 +170,37 @@ Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
                             " data bytes present");
 
   const bool isFortran = *fortran == "True";
+  // float64 in this machine's byte order (what NumPy writes by default): a plain copy.
+  const bool nativeDouble = dtype->kind == 'f' && dtype->size == 8 &&
+                            dtype->big == (std::endian::native == std::endian::big);
   auto at = [&](std::size_t row, std::size_t col) {
     const std::size_t k = isFortran ? col * n + row : row * cols + col;
-    return readValue(u + offset + k * std::size_t(dtype->size), *dtype);
+    const unsigned char* p = u + offset + k * std::size_t(dtype->size);
+    if (nativeDouble) {
+      double d;
+      std::memcpy(&d, p, sizeof d);
+      return d;
+    }
+    return readValue(p, *dtype);
   };
   Cloud c;
   c.name = fileStem(file);
   c.points.resize(Eigen::Index(n), 2);
   c.weights.resize(Eigen::Index(n));
+  prefaultForWrite(c.points.data(), n * 2 * sizeof(double));
+  prefaultForWrite(c.weights.data(), n * sizeof(double));
   static const char* names[3] = {"x", "y", "w"};
+  // Checked row by row in file order, so the message names the first bad value; the message
+  // text is only built for it.
   for (std::size_t r = 0; r < n; ++r) {
     for (std::size_t col = 0; col < cols; ++col) {
       const double v = at(r, col);
-      const std::string where = "row " + std::to_string(r + 1) + ", column " + names[col];
-      if (std::isnan(v)) return fail(where, "value is NaN");
-      if (std::isinf(v)) return fail(where, "value is infinite");
-      if (col == 2 && v < 0) return fail(where, "weight is negative");
+      if (!std::isfinite(v) || (col == 2 && v < 0)) {
+        const std::string where = "row " + std::to_string(r + 1) + ", column " + names[col];
+        if (std::isnan(v)) return fail(where, "value is NaN");
+        if (std::isinf(v)) return fail(where, "value is infinite");
+        return fail(where, "weight is negative");
+      }
       if (col < 2) c.points(Eigen::Index(r), Eigen::Index(col)) = v;
       else c.weights(Eigen::Index(r)) = v;
     }
@@ -195,9 +212,9 @@ Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file) {
 
 Loaded<Cloud> readCloudNpy(const std::string& path) {
   std::string why;
-  const auto bytes = readWholeFile(path, &why);
-  if (!bytes) return Loaded<Cloud>::fail(LoadError{path, 0, "", "cannot open: " + why});
-  return parseCloudNpy(*bytes, path);
+  const auto block = FileBlock::read(path, &why);
+  if (!block) return Loaded<Cloud>::fail(LoadError{path, 0, "", "cannot open: " + why});
+  return parseCloudNpy(block->text(), path);
 }
 
 std::string formatCloudNpy(const Cloud& c) {

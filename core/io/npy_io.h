@@ -4,13 +4,14 @@
 
 #include <optional>
 #include <string>
+#include <string_view>
 
 #include "cloud/cloud.h"
 #include "io/load_error.h"
 
 namespace barrow {
 
-Loaded<Cloud> parseCloudNpy(const std::string& bytes, const std::string& file);
+Loaded<Cloud> parseCloudNpy(std::string_view bytes, const std::string& file);
 Loaded<Cloud> readCloudNpy(const std::string& path);
 
 /// Version 1.0, little-endian float64, shape (n,3) = x, y, w, C order.

@@ -4,8 +4,9 @@
 //   W_p^p = ∫_0^1 |F^{-1}(t) − G^{-1}(t)|^p dt
 // (Villani 2003, Topics in Optimal Transportation, Thm 2.18; Santambrogio 2015, Prop. 2.17;
 // Peyré & Cuturi 2019, Remark 2.30). Both quantile functions are step functions; merging
-// their breakpoints gives the coupling with at most n + m − 1 nonzeros, in O((n + m) log(n + m))
-// for the two sorts.
+// their breakpoints gives the coupling with at most n + m − 1 nonzeros. The two sorts are radix
+// sorts (transport/value_order.h), so a problem costs O(n + m) for data without many
+// near-ties and O((n + m) log(n + m)) at worst.
 //
 // Weights are non-negative and normalised here (each set to total mass 1); zero-weight points
 // take no part. Results are in cost units (length^p).
@@ -15,6 +16,7 @@
 #include <vector>
 
 #include "base/plan_entry.h"
+#include "transport/value_order.h"
 
 namespace barrow {
 
@@ -33,8 +35,10 @@ class Ot1dSolver {
     double value;
     int index;
   };
-  std::vector<Atom> sx_, sy_;  // atoms sorted by value (contiguous: faster than sorting indices)
+  std::vector<Atom> sx_, sy_;  // atoms in value order, contiguous for the merge walk
   std::vector<double> cx_, cy_;
+  std::vector<int> order_;
+  ValueOrderScratch scratch_;
 };
 
 /// W_p (not its p-th power) between two weighted sets on the line; see Ot1dSolver::solve.

@@ -3,6 +3,7 @@
 
 #include <atomic>
 #include <cmath>
+#include <cstring>
 #include <random>
 #include <sstream>
 
@@ -158,6 +159,32 @@ TEST(SlicedMeasureTest, RegisteredWithTheContractKeys) {
   const Result r = evaluateMeasure(*m, randomCloud(10, 70), randomCloud(10, 71), {});
   EXPECT_EQ(r.status, Status::Ok);
   EXPECT_EQ(r.details["directions"], 64);
+}
+
+// [D] each direction's W_p^p depends only on its index and the sum runs in direction order, so
+// the value may not depend on how many threads computed the directions: bit for bit equal,
+// weighted and unweighted, unequal sizes, p = 1 and 2. Large enough for the team to start.
+TEST(SlicedMeasureTest, OneAndTwoThreadsGiveTheSameBits) {
+  for (bool weighted : {true, false}) {
+    const Cloud a = randomCloud(20000, 80, 0.0, weighted), b = randomCloud(13000, 81, 0.4, weighted);
+    for (int p : {1, 2}) {
+      double value[2] = {0, 0};
+      for (int threads : {1, 2}) {
+        RunControl c;
+        c.threads = threads;
+        EvalRequest req;
+        req.control = &c;
+        req.params.set("sliced.directions", "37");
+        req.params.set("sliced.p", std::to_string(p));
+        const Result r = evaluateMeasure(SlicedMeasure(), a, b, req);
+        ASSERT_EQ(r.status, Status::Ok) << r.message;
+        value[threads - 1] = r.value;
+      }
+      EXPECT_EQ(std::memcmp(&value[0], &value[1], sizeof(double)), 0)
+          << "weighted " << weighted << " p " << p << ": " << value[0] << " vs " << value[1];
+      EXPECT_GT(value[0], 0.0);
+    }
+  }
 }
 
 }  // namespace
