@@ -28,7 +28,7 @@ const std::map<std::string, Model>& models() {
       {"w2", {Growth::Simplex, 0.6 / std::pow(1e8, 1.09), true}},
       {"entropic", {Growth::Pairs, 9.6 / 1e8, true}},
       {"sinkhorn", {Growth::Sinkhorn, 15.0 / 1.53e8, true}},
-      {"sliced", {Growth::SortedProjections, 0.045 / (2e4 * std::log2(1e4)), true}},
+      {"sliced", {Growth::SortedProjections, 0.015 / (2e4 * std::log2(1e4)), true}},
       {"mmd", {Growth::PooledPairs, 0.37 / 2e8, true}},
       {"energy", {Growth::PooledPairs, 0.062 / 2e8, true}},
       {"frechet", {Growth::Linear, 1e-3 / 2e4, false}},
