@@ -18,6 +18,10 @@
 #include "sweep_plots.h"
 #include "ui_test_support.h"
 
+// Test names and messages show a size as "1000x700" (GoogleTest finds PrintTo in QSize's
+// namespace, the global one) instead of its bytes.
+inline void PrintTo(const QSize& s, std::ostream* os) { *os << s.width() << "x" << s.height(); }
+
 namespace barrow::ui {
 namespace {
 
