@@ -5,6 +5,7 @@
 #include <optional>
 #include <sstream>
 
+#include "transport/sinkhorn_cache.h"
 #include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
 
@@ -142,7 +143,10 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
     }
   }
   kernel::RowWorkers team(ctx.threads());
-  SinkhornResult sr = solveSinkhorn(a.points, wa, b.points, wb, o, ctx.control, &start, &team);
+  // Through the shared store: `sinkhorn` on the same clouds and settings needs this very solve.
+  bool reused = false;
+  SinkhornResult sr =
+      SinkhornCache::shared().solve(a.points, wa, b.points, wb, o, ctx.control, &start, &team, &reused);
   if (sr.status == SinkhornStatus::InvalidInput) return Result::invalid("entropic: " + sr.message);
 
   Result r;
@@ -151,9 +155,10 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
                                                           : Status::Cancelled;
   r.value = sr.value;
   r.message = sr.message;
-  r.iterations = sr.iterations;
+  r.iterations = reused ? 0 : sr.iterations;  // run by this call, as for `sinkhorn`
   r.details = entropicDetails(s);
   addSolveDetails(r.details, "", sr);
+  r.details["reused"] = reused;  // the solve was found in the shared store (sinkhorn_cache.h)
   // An estimate of the value's absolute accuracy: marginal error × the largest cost [CP].
   r.details["value_accuracy"] = sr.marginalError * s.costBound;
   if (r.status == Status::Cancelled) return r;
@@ -188,7 +193,11 @@ std::optional<Eigen::MatrixX2d> EntropicMeasure::gradientA(const Cloud& a, const
   // Re-solve from r's potentials: one pass confirms them (or finishes them if r stopped short
   // of the tolerance), so the gradient always belongs to a solved problem.
   SinkhornStart start{&r.u, &r.v};
-  const SinkhornResult sr = solveSinkhorn(a.points, wa, b.points, wb, s.options, ctx.control, &start, &team);
+  bool reused = false;
+  SinkhornResult sr =
+      SinkhornCache::shared().solve(a.points, wa, b.points, wb, s.options, ctx.control, &start, &team, &reused);
+  if (reused && sr.status != SinkhornStatus::Converged)  // a kept cold solve that ran out: go on from r
+    sr = solveSinkhorn(a.points, wa, b.points, wb, s.options, ctx.control, &start, &team);
   if (!sr.usable()) return std::nullopt;
   return entropicGradient(a.points, wa, b.points, wb, sr.f, sr.g, s.options.epsilon, s.options.p, &team);
 }

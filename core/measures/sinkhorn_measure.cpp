@@ -7,6 +7,7 @@
 
 #include "cloud/congruence.h"
 #include "measures/entropic_measure.h"
+#include "transport/sinkhorn_cache.h"
 #include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
 
@@ -35,9 +36,12 @@ const SinkhornWarm* fittingWarm(const EvalContext& ctx, const SinkhornOptions& o
   return w && w->p == o.p && w->epsilon == o.epsilon && w->tolerance == o.tolerance ? w : nullptr;
 }
 
+// *Reused: not solved by this call. ab and the self terms may come from the shared store
+// (sinkhorn_cache.h: `entropic` on the same clouds and settings solved OT_ε(a, b) already);
+// a self term may also be taken over from a rigidly moved cloud solved before.
 struct ThreeSolves {
   SinkhornResult ab, aa, bb;
-  bool aaReused = false, bbReused = false;
+  bool abReused = false, aaReused = false, bbReused = false;
 };
 
 // A converged self term of `w` that also holds for `x` (x congruent to the cloud it was
@@ -76,13 +80,15 @@ ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, 
     startFromPath(w->abBefore ? &*w->abBefore : nullptr, w->ab, a.points, b.points, o.p, f0, g0);
     start = {&f0, &g0};
   }
-  t.ab = solveSinkhorn(a.points, wa, b.points, wb, o, c ? &cab : nullptr, &start, &team);
+  SinkhornCache& store = SinkhornCache::shared();
+  t.ab = store.solve(a.points, wa, b.points, wb, o, c ? &cab : nullptr, &start, &team, &t.abReused);
   if (t.ab.status == SinkhornStatus::Cancelled || t.ab.status == SinkhornStatus::InvalidInput) return t;
   if (const SinkhornResult* same = reusableSelf(w, a)) {
     t.aa = *same;
     t.aaReused = true;
   } else {
-    t.aa = solveSinkhornSymmetric(a.points, wa, o, c ? &caa : nullptr, w ? selfStart(w->aa, a.size()) : nullptr, &team);
+    t.aa = store.solveSymmetric(a.points, wa, o, c ? &caa : nullptr, w ? selfStart(w->aa, a.size()) : nullptr, &team,
+                                &t.aaReused);
   }
   if (t.aa.status == SinkhornStatus::Cancelled || t.aa.status == SinkhornStatus::InvalidInput || !withB) return t;
   if (const SinkhornResult* same = reusableSelf(w, b)) {
@@ -92,7 +98,8 @@ ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, 
     t.bb = t.aa;  // B is A moved rigidly: the same self term
     t.bbReused = true;
   } else {
-    t.bb = solveSinkhornSymmetric(b.points, wb, o, c ? &cbb : nullptr, w ? selfStart(w->bb, b.size()) : nullptr, &team);
+    t.bb = store.solveSymmetric(b.points, wb, o, c ? &cbb : nullptr, w ? selfStart(w->bb, b.size()) : nullptr, &team,
+                                &t.bbReused);
   }
   return t;
 }
@@ -114,7 +121,8 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   Result r;
   r.details = entropicDetails(s);
   // Iterations run by this call (a reused self term cost none).
-  r.iterations = t.ab.iterations + (t.aaReused ? 0 : t.aa.iterations) + (t.bbReused ? 0 : t.bb.iterations);
+  r.iterations = (t.abReused ? 0 : t.ab.iterations) + (t.aaReused ? 0 : t.aa.iterations) +
+                 (t.bbReused ? 0 : t.bb.iterations);
   const std::pair<const char*, const SinkhornResult*> parts[] = {
       {"OT_eps(A,B)", &t.ab}, {"OT_eps(A,A)", &t.aa}, {"OT_eps(B,B)", &t.bb}};
   r.message.clear();
@@ -149,7 +157,10 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
   }
   r.u = t.ab.f - t.aa.f;
   r.v = t.ab.g - t.bb.f;
-  r.details["aa_reused"] = t.aaReused;  // self term taken from a rigidly moved cloud solved before
+  // Not solved by this call: found in the shared store, or (self terms) taken from a rigidly
+  // moved cloud solved before.
+  r.details["ab_reused"] = t.abReused;
+  r.details["aa_reused"] = t.aaReused;
   r.details["bb_reused"] = t.bbReused;
   if (ctx.warm) {
     auto w = std::make_shared<SinkhornWarm>();

@@ -9,6 +9,7 @@
 
 #include "measures/evaluate.h"
 #include "measures/registry.h"
+#include "support/shared_solves_off.h"
 #include "support/test_support.h"
 #include "measures/sinkhorn_measure.h"
 
@@ -98,6 +99,9 @@ TEST(SinkhornMeasureTest, DebiasedPotentialsAreFlatOnIdenticalClouds) {
 // A sweep step: the state left in ctx.warm makes the next evaluation cheaper and the same as
 // a cold solve of the moved clouds (the cold solve is the reference; common practice).
 TEST(SinkhornMeasureTest, WarmStartThroughTheContext) {
+  // The warm start itself is under test: with the shared store on, the second request on the
+  // same clouds would be answered by the first solve (sinkhorn_cache_test.cpp checks that).
+  const test::SharedSolvesOff off;
   Cloud a = cloud(70, 8, 0.0);
   const Cloud b = cloud(60, 9, 0.5);
   std::shared_ptr<WarmState> warm;
