@@ -123,6 +123,8 @@ void addSolveDetails(nlohmann::json& d, const std::string& prefix, const Sinkhor
   d[prefix + "marginal_error"] = r.marginalError;
   d[prefix + "epsilon_steps"] = r.stages;
   d[prefix + "warm_start"] = r.warmStarted;
+  d[prefix + "coarse_points"] = r.coarsePoints;  // 0: no coarse-to-fine start (sinkhorn_coarse.h)
+  d[prefix + "coarse_iterations"] = r.coarseIterations;
 }
 
 Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {

@@ -43,7 +43,7 @@ bool sameOptions(const SinkhornOptions& s, const SinkhornOptions& o) {
   return s.epsilon == o.epsilon && s.p == o.p && s.maxIterations == o.maxIterations && s.tolerance == o.tolerance &&
          s.epsilonScaling == o.epsilonScaling && s.scalingFactor == o.scalingFactor &&
          s.stageIterations == o.stageIterations && s.stageTolerance == o.stageTolerance &&
-         s.overRelaxation == o.overRelaxation;
+         s.overRelaxation == o.overRelaxation && s.coarseGrid == o.coarseGrid && s.coarseFrom == o.coarseFrom;
 }
 
 std::uint64_t hashOptions(const SinkhornOptions& o) {
@@ -55,7 +55,9 @@ std::uint64_t hashOptions(const SinkhornOptions& o) {
   h = mixDouble(h, o.scalingFactor);
   h = mixWord(h, std::uint64_t(o.stageIterations));
   h = mixDouble(h, o.stageTolerance);
-  return mixWord(h, o.overRelaxation ? 1 : 0);
+  h = mixWord(h, o.overRelaxation ? 1 : 0);
+  h = mixWord(h, std::uint64_t(o.coarseGrid));
+  return mixWord(h, std::uint64_t(o.coarseFrom));
 }
 
 std::size_t bytesOf(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a) {

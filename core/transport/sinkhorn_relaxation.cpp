@@ -41,6 +41,13 @@ void SinkhornRelaxation::endWindow(double rho) {
   }
 }
 
+void SinkhornRelaxation::startAt(double omega) {
+  if (!(omega > 1.0) || !std::isfinite(omega)) return;
+  omega_ = std::min(omega, cap_);
+  settling_ = true;  // the first window shows the start, not the rate
+  resetWindow();
+}
+
 bool SinkhornRelaxation::accept(double error, double dual) {
   if (omega_ > 1.0 && (!std::isfinite(dual) || !std::isfinite(error) ||
                        (haveDual_ && dual < lastDual_ - 1e-13 * (1.0 + std::abs(lastDual_))))) {

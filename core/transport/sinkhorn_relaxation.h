@@ -32,6 +32,10 @@ class SinkhornRelaxation {
   /// Reports the state reached by the last update: its L1 marginal error and exact dual
   /// objective. Returns false when that update must be undone (the dual dropped).
   bool accept(double error, double dual);
+  /// Starts relaxed at ω (clamped to [1, cap]) instead of learning it from plain steps: the
+  /// factor a coarse solve of the same problem ended with (its rate is nearly the same,
+  /// sinkhorn_coarse.h). The safeguards apply as to a learnt ω.
+  void startAt(double omega);
   /// Times a relaxed step had to be undone.
   int rejections() const { return rejections_; }
 

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "transport/kernel_pass.h"
+#include "transport/sinkhorn_coarse.h"
 #include "transport/sinkhorn_relaxation.h"
 
 namespace barrow {
@@ -130,6 +131,31 @@ struct Team {
   }
 };
 
+// The options of the coarse solve: the same problem settings, no coarse start of its own.
+SinkhornOptions coarseOptions(const SinkhornOptions& o) {
+  SinkhornOptions c = o;
+  c.coarseGrid = 0;
+  return c;
+}
+
+bool coarseApplies(const SinkhornOptions& o, int n, int m) { return o.coarseGrid > 0 && std::min(n, m) >= o.coarseFrom; }
+
+// True when cells of the grids are fine enough for the kernel: their side at most twice its
+// length scale ε^(1/p). Coarser summaries start the full clouds no better than the plain path
+// (measured: up to 1.5× more iterations at a cell side of 7 ε^(1/p)).
+bool coarseFineEnough(const SinkhornOptions& o, int side, const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y) {
+  const double span = std::max((x.colwise().maxCoeff() - x.colwise().minCoeff()).maxCoeff(),
+                               (y.colwise().maxCoeff() - y.colwise().minCoeff()).maxCoeff());
+  const double length = o.p == 2 ? std::sqrt(o.epsilon) : o.epsilon;
+  return span / side <= 2.0 * length;
+}
+
+// Grid side for clouds of at least `n` points: at most coarseGrid, and at least 4 points per
+// cell on average, so that the coarse problem stays far smaller than the fine one.
+int coarseSide(const SinkhornOptions& o, int n) {
+  return std::max(1, std::min(o.coarseGrid, int(std::sqrt(n / 4.0))));
+}
+
 }  // namespace
 
 std::string checkSinkhornOptions(const SinkhornOptions& o) {
@@ -139,6 +165,7 @@ std::string checkSinkhornOptions(const SinkhornOptions& o) {
   if (!(o.tolerance > 0)) return "tolerance must be > 0";
   if (!(o.scalingFactor > 0 && o.scalingFactor < 1)) return "scaling factor must be in (0, 1)";
   if (o.stageIterations < 1) return "stage iterations must be >= 1";
+  if (o.coarseGrid < 0) return "coarse grid must be >= 0";
   return {};
 }
 
@@ -178,6 +205,34 @@ SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a
     r.g = *start->g;
   }
   SinkhornOptions run = o;
+  double coarseOmega = 1.0;
+  if (!r.warmStarted && coarseApplies(o, n, m) && coarseFineEnough(o, coarseSide(o, std::min(n, m)), x, y)) {
+    // Coarse-to-fine start (sinkhorn_coarse.h): the coarse solve anneals, the full clouds
+    // start at the target ε from its potentials.
+    const int side = coarseSide(o, std::min(n, m));
+    const CoarseCloud cx = coarsenOnGrid(x, a, side), cy = coarsenOnGrid(y, b, side);
+    const RunControl part = control ? control->sub(0.0, 0.2) : RunControl{};
+    const SinkhornResult c =
+        solveSinkhorn(cx.x, cx.w, cy.x, cy.w, coarseOptions(o), control ? &part : nullptr, nullptr, team.use);
+    if (c.status == SinkhornStatus::Cancelled) {
+      r.status = SinkhornStatus::Cancelled;
+      r.message = "cancelled during the coarse start";
+      return r;
+    }
+    r.coarseIterations = c.iterations;
+    r.coarsePoints = int(cx.x.rows() + cy.x.rows());
+    if (c.usable() && c.f.allFinite() && c.g.allFinite()) {
+      r.f = extendPotential(x, cy, c.g, o.epsilon, o.p, *team.use);
+      r.g = extendPotential(y, cx, c.f, o.epsilon, o.p, *team.use);
+      run.epsilonScaling = false;
+      coarseOmega = c.omega;
+    }
+    if (!r.f.allFinite() || !r.g.allFinite()) {
+      r.f.setZero();
+      r.g.setZero();
+      run.epsilonScaling = o.epsilonScaling;
+    }
+  }
   if (r.warmStarted) run.epsilonScaling = false;
   const std::vector<double> eps = schedule(run, extentOf(x, y));
   r.stages = int(eps.size());
@@ -186,6 +241,7 @@ SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a
   LoopControl loop{o, control, r};
   double mass = 1.0, e = eps.back();
   SinkhornRelaxation relax;
+  if (o.overRelaxation) relax.startAt(coarseOmega);
   Eigen::VectorXd lastF, lastG;  // the state before the last (relaxed) update
   for (int s = 0; s < int(eps.size()) && loop.running(); ++s) {
     e = eps[s];
@@ -220,6 +276,7 @@ SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a
       if (loop.stageEnds(last, stageIt)) break;
     }
   }
+  r.omega = relax.omega();
   // Dual objective at the current (f, g); the mass term vanishes when the columns are exact.
   r.value = a.dot(r.f) + b.dot(r.g) - (std::isfinite(mass) ? e * (mass - 1.0) : 0.0);
   finish(r, loop.converged, loop.cancelled, o);
@@ -245,6 +302,27 @@ SinkhornResult solveSinkhornSymmetric(const Eigen::MatrixX2d& x, const Eigen::Ve
   r.warmStarted = startF && startF->size() == n && startF->allFinite();
   if (r.warmStarted) r.f = *startF;
   SinkhornOptions run = o;
+  if (!r.warmStarted && coarseApplies(o, n, n) && coarseFineEnough(o, coarseSide(o, n), x, x)) {
+    const CoarseCloud cx = coarsenOnGrid(x, a, coarseSide(o, n));
+    const RunControl part = control ? control->sub(0.0, 0.2) : RunControl{};
+    const SinkhornResult c =
+        solveSinkhornSymmetric(cx.x, cx.w, coarseOptions(o), control ? &part : nullptr, nullptr, team.use);
+    if (c.status == SinkhornStatus::Cancelled) {
+      r.status = SinkhornStatus::Cancelled;
+      r.message = "cancelled during the coarse start";
+      return r;
+    }
+    r.coarseIterations = c.iterations;
+    r.coarsePoints = int(cx.x.rows());
+    if (c.usable() && c.f.allFinite()) {
+      r.f = extendPotential(x, cx, c.f, o.epsilon, o.p, *team.use);
+      run.epsilonScaling = false;
+    }
+    if (!r.f.allFinite()) {
+      r.f.setZero();
+      run.epsilonScaling = o.epsilonScaling;
+    }
+  }
   if (r.warmStarted) run.epsilonScaling = false;
   const std::vector<double> eps = schedule(run, extentOf(x, x));
   r.stages = int(eps.size());
