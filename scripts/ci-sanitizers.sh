@@ -16,6 +16,7 @@
 #        PairSumTest.*          blocked kernel sums over threads (MMD, energy)
 #        ChamferTest.*          nearest-neighbour batches (trees built in parallel)
 #        ThreadBudgetTest.*     nested parallelism under one thread budget (sweep × row team)
+#        SinkhornCacheTest.*    the shared store of entropic solves, two threads at once
 #        WarmColdPropertyTest.RandomWeighted*  every family and measure, warm/cold, threads 1/2/4
 #        CliSweepTest.*         barrow-cli sweep with --threads
 #      The window's workers (tests/ui) are not run under TSan: Qt's own libraries are not
@@ -64,6 +65,7 @@ if [ "$which" = tsan ] || [ "$which" = all ]; then
   export TSAN_OPTIONS=halt_on_error=1:second_deadlock_stack=1
   filter='SweepEngineTest.*:ExactPricingTest.*:RowWorkersTest.*:KernelPassTest.*:PairSumTest.*:ChamferTest.*'
   filter+=':ThreadBudgetTest.*:WarmColdPropertyTest.RandomWeighted*'
+  filter+=':SinkhornCacheTest.*'
   echo "== TSan: threaded core tests"
   build-tsan/tests/barrow_core_tests --gtest_brief=1 --gtest_filter="$filter"
   echo "== TSan: CLI sweep tests"

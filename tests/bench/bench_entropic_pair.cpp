@@ -1,0 +1,111 @@
+// `entropic` + `sinkhorn` on the same two clouds, as `barrow-cli measure` runs them with the
+// default settings (ε = auto = (D/20)², p = 2, tolerance 1e-6), before and after the shared
+// A–B solve (transport/sinkhorn_cache.h) and the coarse-to-fine start
+// (transport/sinkhorn_coarse.h).
+//
+//   BM_PairBefore/n   the solves the two measures made before: OT_ε(A, B) for `entropic`, then
+//                     OT_ε(A, B) again, OT_ε(A, A) and OT_ε(B, B) for `sinkhorn`, each cold
+//                     with annealing on the full clouds (coarseGrid = 0), no shared store
+//   BM_PairAfter/n    evaluateMeasure(entropic) then evaluateMeasure(sinkhorn) as they are
+//                     now, the store emptied first (so `entropic` solves and `sinkhorn` reuses)
+//
+// Clouds: A uniform on [0,1]², B uniform on [0.5,1.5]×[0.2,1.2] (the example, seeded
+// here with std::mt19937_64), uniform weights. Counters: seconds of each measure (wall), the
+// process CPU seconds (both cores), full-cloud iterations of each solve, and both values.
+// Run: build with -DBARROW_BUILD_BENCH=ON, then
+//   tests/bench/bench_entropic_pair --benchmark_filter=BM_Pair
+#include <benchmark/benchmark.h>
+
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <ctime>
+#include <random>
+
+#include "measures/entropic_measure.h"
+#include "measures/evaluate.h"
+#include "measures/sinkhorn_measure.h"
+#include "transport/sinkhorn_cache.h"
+#include "transport/sinkhorn_solver.h"
+
+namespace barrow {
+namespace {
+
+Cloud uniformCloud(int n, unsigned seed, double dx, double dy) {
+  std::mt19937_64 rng(seed);
+  std::uniform_real_distribution<double> u(0.0, 1.0);
+  Eigen::MatrixX2d p(n, 2);
+  for (int i = 0; i < n; ++i) p.row(i) << dx + u(rng), dy + u(rng);
+  return Cloud("c", p, Eigen::VectorXd::Ones(n));
+}
+
+double seconds(std::chrono::steady_clock::time_point t0) {
+  return std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+}
+
+double cpuSeconds() { return double(std::clock()) / CLOCKS_PER_SEC; }
+
+void BM_PairBefore(benchmark::State& state) {
+  const int n = int(state.range(0));
+  const Cloud a = uniformCloud(n, 1, 0.0, 0.0), b = uniformCloud(n, 2, 0.5, 0.2);
+  SinkhornOptions o = readEntropicSettings("entropic", ParamSet{}, a, b).options;
+  o.coarseGrid = 0;  // annealing on the full clouds, as before
+  const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
+  for (auto _ : state) {
+    const double cpu0 = cpuSeconds();
+    auto t0 = std::chrono::steady_clock::now();
+    const SinkhornResult ent = solveSinkhorn(a.points, wa, b.points, wb, o);
+    const double entSeconds = seconds(t0);
+    t0 = std::chrono::steady_clock::now();
+    const SinkhornResult ab = solveSinkhorn(a.points, wa, b.points, wb, o);
+    const SinkhornResult aa = solveSinkhornSymmetric(a.points, wa, o);
+    const SinkhornResult bb = solveSinkhornSymmetric(b.points, wb, o);
+    const double sinkSeconds = seconds(t0);
+    const double div = ab.value - 0.5 * aa.value - 0.5 * bb.value;
+    state.counters["entropic_s"] = entSeconds;
+    state.counters["sinkhorn_s"] = sinkSeconds;
+    state.counters["cpu_s"] = cpuSeconds() - cpu0;
+    state.counters["ab_it"] = ent.iterations;
+    state.counters["aa_it"] = aa.iterations;
+    state.counters["bb_it"] = bb.iterations;
+    std::fprintf(stderr, "before n=%d entropic %.17g (%d it, err %.3g) sinkhorn %.17g (ab %d, aa %d, bb %d it)\n", n,
+                 ent.value, ent.iterations, ent.marginalError, div, ab.iterations, aa.iterations, bb.iterations);
+  }
+}
+
+void BM_PairAfter(benchmark::State& state) {
+  const int n = int(state.range(0));
+  const Cloud a = uniformCloud(n, 1, 0.0, 0.0), b = uniformCloud(n, 2, 0.5, 0.2);
+  for (auto _ : state) {
+    SinkhornCache::shared().clear();
+    const double cpu0 = cpuSeconds();
+    auto t0 = std::chrono::steady_clock::now();
+    const Result ent = evaluateMeasure(EntropicMeasure(), a, b, EvalRequest{});
+    const double entSeconds = seconds(t0);
+    t0 = std::chrono::steady_clock::now();
+    const Result sink = evaluateMeasure(SinkhornMeasure(), a, b, EvalRequest{});
+    const double sinkSeconds = seconds(t0);
+    state.counters["entropic_s"] = entSeconds;
+    state.counters["sinkhorn_s"] = sinkSeconds;
+    state.counters["cpu_s"] = cpuSeconds() - cpu0;
+    state.counters["ab_it"] = ent.details["iterations"].get<int>();
+    state.counters["aa_it"] = sink.details["aa_iterations"].get<int>();
+    state.counters["bb_it"] = sink.details["bb_iterations"].get<int>();
+    state.counters["ab_reused"] = sink.details["ab_reused"].get<bool>();
+    std::fprintf(stderr,
+                 "after  n=%d entropic %.17g (%d it + %d coarse, err %.3g) sinkhorn %.17g (ab reused %d, aa %d, bb %d "
+                 "it) accuracy %.3g / %.3g\n",
+                 n, ent.value, ent.details["iterations"].get<int>(), ent.details["coarse_iterations"].get<int>(),
+                 ent.details["marginal_error"].get<double>(), sink.value, int(sink.details["ab_reused"].get<bool>()),
+                 sink.details["aa_iterations"].get<int>(), sink.details["bb_iterations"].get<int>(),
+                 ent.details["value_accuracy"].get<double>(), sink.details["value_accuracy"].get<double>());
+  }
+}
+
+BENCHMARK(BM_PairBefore)->Arg(4000)->Arg(10000)->Unit(benchmark::kSecond)->UseRealTime()->Iterations(1);
+BENCHMARK(BM_PairAfter)->Arg(4000)->Arg(10000)->Unit(benchmark::kSecond)->UseRealTime()->Iterations(1);
+
+}  // namespace
+}  // namespace barrow
+
+BENCHMARK_MAIN();
