@@ -19,8 +19,9 @@
 // instead (sinkhorn_coarse.h): the annealing runs on grid summaries of the clouds, their
 // potentials are carried to every point by a c-transform, and the full clouds are iterated
 // at the target ε only, over-relaxed from the start with the factor the coarse solve ended
-// with. Measured at 10^4 + 10^4 points, ε = (D/20)²: 78 → 17 full iterations for A–B, 41 → 9
-// for a self term, the value unchanged to 1e-13 relative (tests/bench/RESULTS-entropic.md).
+// with. Measured at 10^4 + 10^4 points, ε = (D/20)²: 97 → 18 full-cloud iterations for A–B,
+// 42 → 9 for a self term, the value unchanged to 1e-13 relative (bench_entropic_pair,
+// tests/bench/RESULTS-entropic.md).
 //
 // Units: ε and the potentials f, g are in cost units (length^p). Weights a, b are normalised
 // here (they need not sum to 1). Convergence is measured by the L1 error of the row
