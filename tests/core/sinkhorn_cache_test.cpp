@@ -15,6 +15,7 @@
 #include "measures/evaluate.h"
 #include "measures/sinkhorn_measure.h"
 #include "support/shared_solves_off.h"
+#include "sweep/sweep_engine.h"
 #include "support/test_support.h"
 #include "transport/sinkhorn_cache.h"
 
@@ -370,6 +371,42 @@ TEST(SinkhornCacheTest, MeasuresFromTwoThreadsMatchTheStoreOff) {
   EXPECT_EQ(sink.value, sinkOff.value);
   // Exactly one of them solved OT_ε(a, b).
   EXPECT_NE(ent.details["reused"].get<bool>(), sink.details["ab_reused"].get<bool>());
+  SinkhornCache::shared().clear();
+}
+
+// A sweep on two threads with warm starts: `sinkhorn` takes `entropic`'s A–B solve at each θ
+// (which `entropic` warm-started from its own previous θ, so not the bits `sinkhorn`'s own
+// warm start would give): every value stays within the accuracy the sweep states for it.
+TEST(SinkhornCacheTest, ASweepSharesTheSolvesWithinTheStatedAccuracy) {
+  const Cloud a = test::gaussianCloud(140, 51, 0.0, 1.0), b = test::gaussianCloud(130, 52, 0.8, 0.9);
+  const EntropicMeasure ent;
+  const SinkhornMeasure sink;
+  SweepRequest req;
+  req.settings.family = Family::Shift;
+  req.settings.from = -1;
+  req.settings.to = 1;
+  req.settings.steps = 9;
+  req.refineJumps = false;
+  req.threads = 2;
+  req.measureObjects = {&ent, &sink};
+  SweepResult off;
+  {
+    const test::SharedSolvesOff noStore;
+    off = runSweep(a, b, req);
+  }
+  SinkhornCache::shared().clear();
+  const SweepResult on = runSweep(a, b, req);
+  ASSERT_TRUE(on.message.empty()) << on.message;
+  ASSERT_EQ(on.theta, off.theta);
+  EXPECT_GE(SinkhornCache::shared().stats().hits, 9);  // sinkhorn's A–B at every θ at least
+  for (std::size_t s = 0; s < 2; ++s) {
+    const double accuracy = std::max(on.series[s].accuracy, off.series[s].accuracy);
+    EXPECT_GT(accuracy, 0.0);
+    for (std::size_t k = 0; k < on.theta.size(); ++k) {
+      EXPECT_EQ(on.series[s].status[k], Status::Ok);
+      EXPECT_NEAR(on.series[s].value[k], off.series[s].value[k], accuracy) << s << " θ " << on.theta[k];
+    }
+  }
   SinkhornCache::shared().clear();
 }
 
