@@ -18,7 +18,9 @@ struct TimeEstimate {
 };
 
 /// The forecast for measure `id` on clouds of na and nb points with `threads` worker threads
-/// (0 = one per core); nullopt for an id without a model.
+/// (0 = one per core); nullopt for an id without a model. The Sinkhorn divergence's forecast
+/// includes its A–B entropic solve, which it takes from `entropic` when that ran first on the
+/// same clouds (subtract entropic's forecast then).
 std::optional<TimeEstimate> estimateTime(const std::string& id, std::size_t na, std::size_t nb, int threads);
 
 /// "0.4 s", "12 s", "3 min", "2.1 h": a forecast's text (no more digits than it deserves).
