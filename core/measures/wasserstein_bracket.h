@@ -6,9 +6,11 @@
 //   (spatial/cloud_quantiser.h); eA = (Σ a_i |x_i − q(x_i)|^p)^(1/p) ≥ W_p(A, QA), likewise eB
 //   (the map to the representative is a coupling); W = W_p(QA, QB), solved exactly by the
 //   network simplex (transport/exact_ot.h). Then
-//     low  = max(W − eA − eB, |mean A − mean B|, [p = 2] Gelbrich bound)
-//     high = W + eA + eB                      (p = 1, triangle inequality)
-//     high = sqrt(W² + eA² + eB²)             (p = 2, glued coupling, see below)
+//     low  = max(W − eA − eB, |mean A − mean B|, dual bound, [p = 2] Gelbrich bound)
+//     high = cost of the coupling glued through the cells (p = 1: at most W + eA + eB;
+//            p = 2: exactly sqrt(W² + eA² + eB²), see below)
+//   The dual bound: Kantorovich duality with c-transforms of the quantised solve's potentials,
+//   evaluated at every original point, so every pair's constraint holds (dualLowW1/W2 in the .cpp).
 //   |mean A − mean B| ≤ W1 ≤ W2 by Jensen's inequality [D]; W2 is at least the W2 distance of
 //   the Gaussians with the clouds' means and covariances (Gelbrich 1990). For p = 2 the
 //   coupling that sends a point of cell r, spread over its cell's mass, along the quantised
@@ -38,9 +40,10 @@ struct WassersteinBracket {
   double triangleLow = 0.0;       // max(0, W − eA − eB)
   double meanLow = 0.0;           // |mean A − mean B|
   double gaussianLow = 0.0;       // p = 2: W2 of the fitted Gaussians; 0 for p = 1
+  double dualLow = 0.0;           // Kantorovich dual bound from the quantised potentials
   double low = 0.0, high = 0.0;   // with the rounding allowance
-  const char* lowRule = "";       // which of the lower bounds won: "triangle", "means", "gaussian"
-  double quantiseSeconds = 0.0, solveSeconds = 0.0;
+  const char* lowRule = "";       // which lower bound won: "triangle", "dual", "means", "gaussian"
+  double quantiseSeconds = 0.0, solveSeconds = 0.0, boundSeconds = 0.0;
 };
 
 /// Pre: a and b validated, p ∈ {1, 2}, representatives >= 1. The bracket is meaningful only

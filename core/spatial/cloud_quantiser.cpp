@@ -90,6 +90,8 @@ Quantisation quantiseCloud(const Cloud& c, Eigen::Index cells, const RunControl*
   Eigen::MatrixX2d reps(k, 2);
   Eigen::VectorXd mass(k);
   q.cellOf.assign(std::size_t(c.size()), -1);
+  q.cellDistance = Eigen::VectorXd::Zero(k);
+  q.cellSquare = Eigen::VectorXd::Zero(k);
   for (Eigen::Index r = 0; r < k; ++r) {
     const Cell& cell = done[std::size_t(r)];
     reps(r, 0) = cell.mx;
@@ -100,9 +102,13 @@ Quantisation quantiseCloud(const Cloud& c, Eigen::Index cells, const RunControl*
       q.cellOf[std::size_t(i)] = r;
       const double dx = p(i, 0) - cell.mx, dy = p(i, 1) - cell.my;
       const double d2 = dx * dx + dy * dy;
-      q.cost1 += w(i) * std::sqrt(d2);
-      q.cost2 += w(i) * d2;
+      q.cellDistance(r) += w(i) * std::sqrt(d2);
+      q.cellSquare(r) += w(i) * d2;
     }
+    q.cost1 += q.cellDistance(r);
+    q.cost2 += q.cellSquare(r);
+    q.cellDistance(r) /= cell.mass;
+    q.cellSquare(r) /= cell.mass;
   }
   q.representatives = Cloud(c.name, std::move(reps), std::move(mass));
   return q;

@@ -23,6 +23,9 @@ struct Quantisation {
   std::vector<Eigen::Index> cellOf;  // per input row: its representative, −1 for zero weight
   double cost1 = 0.0;            // Σ_i a_i |x_i − q(x_i)|   (a normalised)
   double cost2 = 0.0;            // Σ_i a_i |x_i − q(x_i)|²
+  // Per representative, over its cell under the cell's own (conditional) weights:
+  Eigen::VectorXd cellDistance;  // mean |x − m|
+  Eigen::VectorXd cellSquare;    // mean |x − m|²
   bool cancelled = false;
 
   /// (Σ a_i |x_i − q(x_i)|^p)^(1/p) for p = 1 or 2: an upper bound on W_p(cloud, representatives).
