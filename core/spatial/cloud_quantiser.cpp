@@ -32,6 +32,19 @@ Cell describe(Eigen::Index begin, Eigen::Index end, const std::vector<Eigen::Ind
   }
   c.mx = sx / c.mass;
   c.my = sy / c.mass;
+  // A cell of one position gets that position exactly (w·x / w may be an ulp off), so a
+  // cloud of repeated points is quantised without error, exactly 0.
+  bool onePosition = true;
+  const Eigen::Index first = order[std::size_t(begin)];
+  for (Eigen::Index k = begin; k < end && onePosition; ++k) {
+    const Eigen::Index i = order[std::size_t(k)];
+    onePosition = p(i, 0) == p(first, 0) && p(i, 1) == p(first, 1);
+  }
+  if (onePosition) {
+    c.mx = p(first, 0);
+    c.my = p(first, 1);
+    return c;
+  }
   for (Eigen::Index k = begin; k < end; ++k) {
     const Eigen::Index i = order[std::size_t(k)];
     const double dx = p(i, 0) - c.mx, dy = p(i, 1) - c.my;
