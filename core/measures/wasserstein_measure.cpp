@@ -16,10 +16,6 @@ namespace {
 constexpr double kMarginalTolerance = 1e-9;  // max |row/column sum − weight|; masses sum to 1
 constexpr double kGapTolerance = 1e-9;       // |cost − dual|, relative to the terms' size
 
-// Measured (tests/bench/RESULTS-large-wp.md, 2 cores): exact W1 takes ~15 s at 2·10^4 per
-// side and ~36 s at 3·10^4, exact W2 ~5 s at 2·10^4 and ~20 s at 5·10^4.
-constexpr int kExactLimit[3] = {0, 25000, 50000};
-constexpr int kRepresentatives[3] = {0, 12000, 20000};
 
 Eigen::Index positiveCount(const Cloud& c) {
   Eigen::Index n = 0;
@@ -45,7 +41,7 @@ std::vector<ParamSpec> WassersteinMeasure::params() const {
   ParamSpec limit;
   limit.key = id() + ".exact_limit";
   limit.kind = ParamKind::Integer;
-  limit.defaultValue = std::to_string(kExactLimit[p_]);
+  limit.defaultValue = std::to_string(wassersteinDefaultExactLimit(p_));
   limit.min = 0;
   limit.max = 2000000000;
   limit.unit = "points";
@@ -54,7 +50,7 @@ std::vector<ParamSpec> WassersteinMeasure::params() const {
   ParamSpec reps;
   reps.key = id() + ".representatives";
   reps.kind = ParamKind::Integer;
-  reps.defaultValue = std::to_string(kRepresentatives[p_]);
+  reps.defaultValue = std::to_string(wassersteinDefaultRepresentatives(p_));
   reps.min = 1;
   reps.max = 2000000000;
   reps.unit = "points";

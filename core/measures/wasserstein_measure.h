@@ -17,6 +17,13 @@
 
 namespace barrow {
 
+/// Defaults of `<id>.exact_limit` and `<id>.representatives` for p = 1 or 2. Measured
+/// (tests/bench/RESULTS-large-wp.md, 2 shared cores): exact W1 takes ~15 s at 2·10^4 points per
+/// side and ~36 s at 3·10^4, exact W2 ~5 s at 2·10^4 and ~20 s at 5·10^4; the bracket's solve
+/// between 12 000 (W1) or 20 000 (W2) representatives takes 4–15 s.
+constexpr int wassersteinDefaultExactLimit(int p) { return p == 1 ? 25000 : 50000; }
+constexpr int wassersteinDefaultRepresentatives(int p) { return p == 1 ? 12000 : 20000; }
+
 class WassersteinMeasure : public Measure {
  public:
   /// p = 1 (w1) or 2 (w2).
