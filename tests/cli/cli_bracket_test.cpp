@@ -57,5 +57,28 @@ TEST(CliBracketTest, MeasureJsonCarriesLowAndHigh) {
   EXPECT_NE(err.find("w1.representatives"), std::string::npos) << err;
 }
 
+// The sweep writes the midpoints and records half the widest bracket as the value's accuracy
+// (`# accuracy.w1=`), which the findings' jump test reads: a shift of A is continuous in W1
+// [D] (W1(A + t, A) = |t| and the triangle inequality), and stays so when bracketed.
+TEST(CliBracketTest, SweepRecordsTheBracketAsAccuracy) {
+  const std::string a = cloudFile("bracket_sa.csv", 800, 0.0, 7), b = cloudFile("bracket_sb.csv", 800, 0.5, 8);
+  const std::string csv = test::tempPath("bracket_sweep.csv");
+  std::string out, err;
+  ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " sweep --a " + a + " --b " + b +
+                                 " --family shift --direction 1,0 --from 0 --to 1 --steps 11 --measures w1"
+                                 " --set w1.exact_limit=0 --set w1.representatives=80 --out " + csv,
+                             &out, &err),
+            0)
+      << err;
+  const std::string text = test::readText(csv);
+  const auto at = text.find("# accuracy.w1=");
+  ASSERT_NE(at, std::string::npos) << text;
+  EXPECT_GT(std::stod(text.substr(at + 14)), 0.0);
+  ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " findings --sweep " + csv + " --json", &out, &err), 0) << err;
+  const auto f = nlohmann::json::parse(out);
+  EXPECT_EQ(f["findings"][0]["continuous"], true) << out;
+  EXPECT_TRUE(f["findings"][0]["jumps"].empty()) << out;
+}
+
 }  // namespace
 }  // namespace barrow
