@@ -29,6 +29,9 @@ QString valueText(const Result& r) {
   if (!r.usable()) return QStringLiteral("—");
   if (std::isinf(r.value)) return r.value > 0 ? QStringLiteral("∞") : QStringLiteral("−∞");
   if (std::isnan(r.value)) return QStringLiteral("—");
+  // A certified bracket: its midpoint ± half its width (the bounds are in the status column).
+  if (r.status == Status::Bracketed && std::isfinite(r.low) && std::isfinite(r.high))
+    return num(r.value) + " ± " + QString::number(0.5 * (r.high - r.low), 'g', 2);
   return num(r.value);
 }
 
@@ -64,6 +67,8 @@ QString statusText(const Result& r) {
       return QObject::tr("invalid: %1").arg(QString::fromStdString(r.message));
     case Status::Cancelled:
       return QObject::tr("cancelled");
+    case Status::Bracketed:
+      return QObject::tr("bracketed [%1, %2]").arg(num(r.low), num(r.high));
   }
   return {};
 }

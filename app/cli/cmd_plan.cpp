@@ -39,6 +39,7 @@ int runPlan(const std::vector<std::string>& argv) {
   if (!m) throw InternalError{"measure '" + costName + "' is not registered"};
   EvalRequest req;
   req.wantPlan = true;
+  req.params.set(costName + ".exact_limit", "2000000000");  // a plan needs the exact solve, never a bracket
   const Result r = evaluateMeasure(*m, a, b, req);
   if (r.status == Status::InvalidInput) throw InputError{r.message};
   if (r.status != Status::Ok) throw InternalError{costName + " failed: " + r.message};

@@ -9,6 +9,7 @@ const char* statusName(Status s) {
     case Status::NotConverged: return "not-converged";
     case Status::InvalidInput: return "invalid-input";
     case Status::Cancelled: return "cancelled";
+    case Status::Bracketed: return "bracketed";
   }
   return "invalid-input";
 }

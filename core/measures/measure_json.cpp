@@ -15,6 +15,10 @@ nlohmann::json measureRowJson(const Measure& m, const Result& r, const ParamSet&
                         {"seconds", r.seconds},
                         {"iterations", r.iterations},
                         {"details", r.details}};
+  if (r.status == Status::Bracketed) {  // certified bounds (DEVELOPERS.md, Command-line contract)
+    row["low"] = std::isfinite(r.low) ? nlohmann::json(r.low) : nlohmann::json();
+    row["high"] = std::isfinite(r.high) ? nlohmann::json(r.high) : nlohmann::json();
+  }
   if (!r.message.empty()) row["message"] = r.message;
   return row;
 }

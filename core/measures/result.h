@@ -15,6 +15,7 @@ namespace barrow {
 struct Result {
   Status status = Status::InvalidInput;
   double value = NAN;                    // as defined in DEVELOPERS.md, Measure conventions; +inf when Infinite
+  double low = NAN, high = NAN;          // Bracketed: certified bounds, low <= true value <= high
   std::string message = "evaluate was not called";
   std::vector<PlanEntry> plan;           // optional (transport measures)
   Eigen::VectorXd u, v;                  // optional dual potentials on A and on B

@@ -6,6 +6,7 @@
 #include <map>
 
 #include "base/run_control.h"
+#include "measures/wasserstein_measure.h"
 
 namespace barrow {
 namespace {
@@ -69,12 +70,25 @@ std::optional<TimeEstimate> estimateTime(const std::string& id, std::size_t na, 
   const auto it = models().find(id);
   if (it == models().end()) return std::nullopt;
   const Model& m = it->second;
-  double s = m.perUnit * growthTerm(m.growth, double(na), double(nb));
+  // w1/w2 above their default exact limit give a bracket: an exact solve between the default
+  // number of representatives, plus about a second of quantising and bounds at 10^5 points.
+  double bracketExtra = 0.0;
+  if (id == "w1" || id == "w2") {
+    const int p = id == "w1" ? 1 : 2;
+    if (std::max(na, nb) > std::size_t(wassersteinDefaultExactLimit(p))) {
+      const std::size_t k = std::size_t(wassersteinDefaultRepresentatives(p));
+      bracketExtra = 1e-5 * double(na + nb);
+      na = std::min(na, k);
+      nb = std::min(nb, k);
+    }
+  }
+  double s = m.perUnit * growthTerm(m.growth, double(na), double(nb)) + bracketExtra;
   if (id.rfind("critic_", 0) == 0) s += estimateTime("w1", na, nb, threads)->seconds;
   // The constants hold for 2 threads; a parallel measure given t threads takes about 2/t of it.
   const int t = threads > 0 ? threads : defaultThreadCount();
   if (m.parallel) s *= 2.0 / double(std::max(1, t));
   static const char* names[] = {"n·m", "(n+m)²/2", "(n·m)^1.09", "n·m + 0.95·(n²+m²)/2", "K·(n+m)·log n", "n+m", "(n+m)·log n", "fixed"};
+  if (bracketExtra > 0) return TimeEstimate{s, std::string("bracket: k representatives, (k·k)^1.09 + (n+m)")};
   return TimeEstimate{s, names[int(m.growth)]};
 }
 

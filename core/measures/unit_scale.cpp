@@ -36,6 +36,8 @@ std::optional<Result> evaluateAtUnitScale(const Measure& m, const Cloud& a, cons
   // Multiplying back can overflow (a true value beyond 1.8e308) or underflow: say so.
   const double inUnits = r.value;
   r.value *= std::pow(unit, valueDegree);
+  r.low *= std::pow(unit, valueDegree);   // a bracket's bounds (NaN otherwise) scale with the value
+  r.high *= std::pow(unit, valueDegree);
   if (r.status == Status::Ok && !std::isfinite(r.value))
     return Result::invalid("the value " + std::to_string(inUnits) + " x 2^" +
                            std::to_string(valueDegree * std::ilogb(unit)) + " is beyond the range of a double");

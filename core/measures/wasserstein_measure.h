@@ -4,12 +4,25 @@
 // Result: value, u/v (potentials of the cost ‖x − y‖^p, u_i + v_j <= c_ij), the plan
 // when asked (EvalContext::wantPlan), pivots as iterations, and details naming the solver.
 // Warm starts through EvalContext::warm (an ExactWarmState).
+// Large clouds (more points of positive weight on the larger side than `<id>.exact_limit`):
+// a certified bracket instead (status bracketed, Result::low/high, value the midpoint),
+// by quantising both clouds to `<id>.representatives` points (measures/wasserstein_bracket.h).
+// The decision is a size threshold, not a time estimate: the defaults are set from the
+// measured solve times in tests/bench/RESULTS-large-wp.md so that either path answers within
+// about a minute on two cores at 10^5 + 10^5.
 #pragma once
 
 #include "measures/measure.h"
 #include "measures/units.h"
 
 namespace barrow {
+
+/// Defaults of `<id>.exact_limit` and `<id>.representatives` for p = 1 or 2. Measured
+/// (tests/bench/RESULTS-large-wp.md, 2 shared cores): exact W1 takes ~15 s at 2·10^4 points per
+/// side and ~36 s at 3·10^4, exact W2 ~5 s at 2·10^4 and ~20 s at 5·10^4; the bracket's solve
+/// between 12 000 (W1) or 20 000 (W2) representatives takes 4–15 s.
+constexpr int wassersteinDefaultExactLimit(int p) { return p == 1 ? 25000 : 50000; }
+constexpr int wassersteinDefaultRepresentatives(int p) { return p == 1 ? 12000 : 20000; }
 
 class WassersteinMeasure : public Measure {
  public:
@@ -29,6 +42,9 @@ class WassersteinMeasure : public Measure {
   // Optimal transport is defined between measures: merging repeated points changes nothing.
   bool repeatsMayMerge() const override { return true; }
 
+  /// `<id>.exact_limit` and `<id>.representatives` (see the top of this file).
+  std::vector<ParamSpec> params() const override;
+
   Result evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const override;
 
   /// Envelope theorem through the optimal plan π (Villani 2009, Thm 10.28 (mem)):
@@ -40,6 +56,7 @@ class WassersteinMeasure : public Measure {
                                             const Result& r) const override;
 
  private:
+  Result bracket(const Cloud& a, const Cloud& b, const EvalContext& ctx) const;
   int p_;
 };
 

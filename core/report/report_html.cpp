@@ -221,7 +221,7 @@ void cautions(std::ostringstream& o, const ReportInput& in) {
   o << "</li>\n";
   for (const auto& s : r.series) {
     std::size_t failed = 0;
-    for (Status st : s.status) failed += !(st == Status::Ok || st == Status::Infinite || st == Status::NotConverged);
+    for (Status st : s.status) failed += !usable(st);
     if (failed > 0)
       o << "<li><strong>" << htmlText(s.id) << " failed at " << failed << " of " << s.status.size()
         << " θ values</strong>: " << htmlText(s.message) << "</li>\n";

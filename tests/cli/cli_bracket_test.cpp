@@ -1,0 +1,84 @@
+// `measure --json` with a bracketed W_p (DEVELOPERS.md, Command-line contract; issue 13): the row
+// carries "status":"bracketed", numeric "low" and "high" and the midpoint as "value"; the
+// threshold and the representative count are ordinary --set parameters.
+#include <gtest/gtest.h>
+
+#include <nlohmann/json.hpp>
+#include <random>
+#include <sstream>
+
+#include "support/test_support.h"
+
+namespace barrow {
+namespace {
+
+std::string cloudFile(const std::string& name, int n, double shift, unsigned seed) {
+  std::mt19937_64 rng(seed);
+  std::uniform_real_distribution<double> u(0.0, 1.0);
+  std::ostringstream s;
+  s.precision(17);
+  s << "x,y\n";
+  for (int i = 0; i < n; ++i) s << u(rng) + shift << "," << u(rng) << "\n";
+  const std::string path = test::tempPath(name);
+  test::writeText(path, s.str());
+  return path;
+}
+
+TEST(CliBracketTest, MeasureJsonCarriesLowAndHigh) {
+  const std::string a = cloudFile("bracket_a.csv", 600, 0.0, 5), b = cloudFile("bracket_b.csv", 500, 0.4, 6);
+  std::string out, err;
+  ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " measure --a " + a + " --b " + b +
+                                 " --measures w1,w2 --set w1.exact_limit=0 --set w1.representatives=60 --json",
+                             &out, &err),
+            0)
+      << err;
+  const auto j = nlohmann::json::parse(out);
+  ASSERT_EQ(j["measures"].size(), 2u);
+  const auto& w1 = j["measures"][0];
+  EXPECT_EQ(w1["status"], "bracketed");
+  ASSERT_TRUE(w1["low"].is_number() && w1["high"].is_number() && w1["value"].is_number()) << w1.dump();
+  EXPECT_LT(w1["low"].get<double>(), w1["high"].get<double>());
+  EXPECT_DOUBLE_EQ(w1["value"].get<double>(), 0.5 * (w1["low"].get<double>() + w1["high"].get<double>()));
+  EXPECT_EQ(w1["details"]["representatives_a"], 60);
+  const auto& w2 = j["measures"][1];  // under its default limit: exact, no bounds
+  EXPECT_EQ(w2["status"], "ok");
+  EXPECT_FALSE(w2.contains("low"));
+  // `plan` is unaffected (it always asks for the exact solve, app/cli/cmd_plan.cpp).
+  ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " plan --a " + a + " --b " + b + " --cost w1 --out " +
+                                 test::tempPath("bracket_plan.csv"),
+                             &out, &err),
+            0)
+      << err;
+  // A bad count is bad input (exit 2) naming the key.
+  EXPECT_EQ(test::runCommand(std::string(BARROW_CLI) + " measure --a " + a + " --b " + b +
+                                 " --measures w1 --set w1.representatives=0",
+                             &out, &err),
+            2);
+  EXPECT_NE(err.find("w1.representatives"), std::string::npos) << err;
+}
+
+// The sweep writes the midpoints and records half the widest bracket as the value's accuracy
+// (`# accuracy.w1=`), which the findings' jump test reads: a shift of A is continuous in W1
+// [D] (W1(A + t, A) = |t| and the triangle inequality), and stays so when bracketed.
+TEST(CliBracketTest, SweepRecordsTheBracketAsAccuracy) {
+  const std::string a = cloudFile("bracket_sa.csv", 800, 0.0, 7), b = cloudFile("bracket_sb.csv", 800, 0.5, 8);
+  const std::string csv = test::tempPath("bracket_sweep.csv");
+  std::string out, err;
+  ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " sweep --a " + a + " --b " + b +
+                                 " --family shift --direction 1,0 --from 0 --to 1 --steps 11 --measures w1"
+                                 " --set w1.exact_limit=0 --set w1.representatives=80 --out " + csv,
+                             &out, &err),
+            0)
+      << err;
+  const std::string text = test::readText(csv);
+  const auto at = text.find("# accuracy.w1=");
+  ASSERT_NE(at, std::string::npos) << text;
+  EXPECT_GT(std::stod(text.substr(at + 14)), 0.0);
+  ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " findings --sweep " + csv + " --json", &out, &err), 0) << err;
+  const auto f = nlohmann::json::parse(out);
+  EXPECT_EQ(f["findings"][0]["continuous"], true) << out;
+  EXPECT_TRUE(f["findings"][0]["jumps"].empty()) << out;
+}
+
+}  // namespace
+}  // namespace barrow
