@@ -29,7 +29,9 @@ void ProgressLine::show(const std::string& what, double fraction, double left) {
   std::lock_guard<std::mutex> lock(mutex_);
   const double sinceStart = std::chrono::duration<double>(now - start_).count();
   const double sinceLast = std::chrono::duration<double>(now - last_).count();
-  if (sinceStart < 1.0 || (shown_ && sinceLast < (terminal_ ? 0.2 : 10.0))) return;
+  // A terminal sees the line from the first second; a pipe or file only once the run has
+  // passed 10 s, so the stderr of short scripted runs stays empty.
+  if (sinceStart < (terminal_ ? 1.0 : 10.0) || (shown_ && sinceLast < (terminal_ ? 0.2 : 10.0))) return;
   last_ = now;
   const std::string text = what + ": " + progressText(fraction, sinceStart, left);
   if (terminal_) std::fprintf(stderr, "\r\033[K%s", text.c_str());

@@ -1,7 +1,7 @@
 // Progress of a long CLI run on stderr: what is running, the fraction done, time elapsed and an
 // estimate of the time left. On a terminal one line is rewritten in place (at most 5 times a
-// second); into a file or pipe a line is added every 10 s, so logs stay short. Nothing is shown
-// during the first second: short runs stay quiet.
+// second) from the first second on; into a file or pipe a line is added every 10 s once the run
+// has passed 10 s, so logs stay short and short scripted runs leave stderr empty.
 #pragma once
 
 #include <chrono>
