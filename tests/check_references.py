@@ -4,7 +4,8 @@
 Checked: source tags ([P], [D], [CP], (mem) and any other [XY] tag), check keys
 ("REFERENCES 1b", "REFERENCES.md row 1b"), author-year citations ("Villani 2003",
 "Feydy et al. 2019": the surname before the year and the year must share a line of the
-file), and pointers outside the repository (../shared/, DESIGN.md), which are not allowed.
+file), and pointers to design notes kept outside the repository (the ../shared/ folder and its
+design file), which a maintainer of this repository does not have: not allowed.
 Usage: check_references.py <repository root>
 """
 import pathlib

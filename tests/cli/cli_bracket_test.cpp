@@ -12,20 +12,8 @@
 namespace barrow {
 namespace {
 
-std::string cloudFile(const std::string& name, int n, double shift, unsigned seed) {
-  std::mt19937_64 rng(seed);
-  std::uniform_real_distribution<double> u(0.0, 1.0);
-  std::ostringstream s;
-  s.precision(17);
-  s << "x,y\n";
-  for (int i = 0; i < n; ++i) s << u(rng) + shift << "," << u(rng) << "\n";
-  const std::string path = test::tempPath(name);
-  test::writeText(path, s.str());
-  return path;
-}
-
 TEST(CliBracketTest, MeasureJsonCarriesLowAndHigh) {
-  const std::string a = cloudFile("bracket_a.csv", 600, 0.0, 5), b = cloudFile("bracket_b.csv", 500, 0.4, 6);
+  const std::string a = test::uniformSquareCsv("bracket_a.csv", 600, 0.0, 5), b = test::uniformSquareCsv("bracket_b.csv", 500, 0.4, 6);
   std::string out, err;
   ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " measure --a " + a + " --b " + b +
                                  " --measures w1,w2 --set w1.exact_limit=0 --set w1.representatives=60 --json",
@@ -61,7 +49,7 @@ TEST(CliBracketTest, MeasureJsonCarriesLowAndHigh) {
 // (`# accuracy.w1=`), which the findings' jump test reads: a shift of A is continuous in W1
 // [D] (W1(A + t, A) = |t| and the triangle inequality), and stays so when bracketed.
 TEST(CliBracketTest, SweepRecordsTheBracketAsAccuracy) {
-  const std::string a = cloudFile("bracket_sa.csv", 800, 0.0, 7), b = cloudFile("bracket_sb.csv", 800, 0.5, 8);
+  const std::string a = test::uniformSquareCsv("bracket_sa.csv", 800, 0.0, 7), b = test::uniformSquareCsv("bracket_sb.csv", 800, 0.5, 8);
   const std::string csv = test::tempPath("bracket_sweep.csv");
   std::string out, err;
   ASSERT_EQ(test::runCommand(std::string(BARROW_CLI) + " sweep --a " + a + " --b " + b +

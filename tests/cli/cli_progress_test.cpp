@@ -13,21 +13,9 @@
 namespace barrow {
 namespace {
 
-std::string uniformCloud(const std::string& name, int n, double shift, unsigned seed) {
-  std::mt19937_64 rng(seed);
-  std::uniform_real_distribution<double> u(0.0, 1.0);
-  std::ostringstream s;
-  s.precision(17);
-  s << "x,y\n";
-  for (int i = 0; i < n; ++i) s << u(rng) + shift << "," << u(rng) << "\n";
-  const std::string path = test::tempPath(name);
-  test::writeText(path, s.str());
-  return path;
-}
-
 TEST(CliProgressTest, ALongRunForecastsReportsAndStopsCleanlyOnCtrlC) {
   const int n = 20000;
-  const std::string a = uniformCloud("big_a.csv", n, 0.0, 1), b = uniformCloud("big_b.csv", n, 0.5, 2);
+  const std::string a = test::uniformSquareCsv("big_a.csv", n, 0.0, 1), b = test::uniformSquareCsv("big_b.csv", n, 0.5, 2);
   const auto entropic = estimateTime("entropic", n, n, 0), sinkhorn = estimateTime("sinkhorn", n, n, 0);
   ASSERT_TRUE(entropic && sinkhorn);
   ASSERT_GT(entropic->seconds + sinkhorn->seconds, 6.0);  // the run is long enough to interrupt
@@ -52,7 +40,7 @@ TEST(CliProgressTest, ALongRunForecastsReportsAndStopsCleanlyOnCtrlC) {
 }
 
 TEST(CliProgressTest, AShortRunPrintsNothingOnStderr) {
-  const std::string a = uniformCloud("small_a.csv", 200, 0.0, 3), b = uniformCloud("small_b.csv", 200, 0.5, 4);
+  const std::string a = test::uniformSquareCsv("small_a.csv", 200, 0.0, 3), b = test::uniformSquareCsv("small_b.csv", 200, 0.5, 4);
   std::string out, err;
   EXPECT_EQ(test::runCommand(std::string(BARROW_CLI) + " measure --a " + a + " --b " + b + " --json", &out, &err), 0);
   EXPECT_EQ(err, "");

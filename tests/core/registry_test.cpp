@@ -10,7 +10,7 @@
 namespace barrow {
 namespace {
 
-// The measure ids of the design's measure table and of `barrow-cli --help`, in their order.
+// The measure ids of DEVELOPERS.md ("Measure conventions") and of `barrow-cli --help`, in their order.
 // A new measure appends its id here, to designMeasureIds() in core/measures/registry.cpp and
 // to the documents (DEVELOPERS.md, "Adding a measure").
 const std::vector<std::string> kDocumentedIds = {

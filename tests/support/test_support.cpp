@@ -135,4 +135,16 @@ EvalRequest entropicRequest(const std::string& group, double epsilon, int p, dou
   return req;
 }
 
+std::string uniformSquareCsv(const std::string& name, int n, double shift, unsigned seed) {
+  std::mt19937_64 rng(seed);
+  std::uniform_real_distribution<double> u(0.0, 1.0);
+  std::ostringstream s;
+  s.precision(17);
+  s << "x,y\n";
+  for (int i = 0; i < n; ++i) s << u(rng) + shift << "," << u(rng) << "\n";
+  const std::string path = tempPath(name);
+  writeText(path, s.str());
+  return path;
+}
+
 }  // namespace barrow::test

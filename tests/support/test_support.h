@@ -17,6 +17,9 @@ std::string dataDir();
 std::string tempPath(const std::string& name);
 /// Writes text to a file (plain write; tests only).
 void writeText(const std::string& path, const std::string& text);
+/// Writes n points uniform on [shift, 1+shift] x [0, 1] (header x,y, 17 digits) to a temporary
+/// CSV named `name`, from a seeded generator; returns its path.
+std::string uniformSquareCsv(const std::string& name, int n, double shift, unsigned seed);
 std::string readText(const std::string& path);
 
 /// Runs `script` with /usr/bin/python3 and returns its stdout; fails the test (and returns
