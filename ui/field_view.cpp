@@ -124,7 +124,7 @@ void FieldView::setGhost(const std::optional<Cloud>& a0) {
 void FieldView::setExactPlan(const std::vector<PlanEntry>& plan, const QString& label) {
   exactPlan_ = plan;
   exact_->setPlan(plan, a_.points, b_.points);
-  exact_->setName(label);
+  exact_->setLabel(label);
   exact_->setVisible(exactSegmentsShown_);
   rebuildInterpolation();
   refresh();
@@ -133,7 +133,7 @@ void FieldView::setExactPlan(const std::vector<PlanEntry>& plan, const QString& 
 void FieldView::setEntropicPlan(const std::vector<PlanEntry>& plan, const QString& label) {
   entropicPlan_ = plan;
   entropic_->setPlan(plan, a_.points, b_.points);
-  entropic_->setName(label);
+  entropic_->setLabel(label);
   entropic_->setVisible(true);
   refresh();
 }

@@ -2,6 +2,10 @@
 
 #include <algorithm>
 #include <array>
+#include <cmath>
+#include <QLocale>
+
+#include "plan_thinning.h"
 
 namespace barrow::ui {
 
@@ -12,19 +16,22 @@ SegmentLayer::SegmentLayer(QCPAxis* keyAxis, QCPAxis* valueAxis)
 }
 
 void SegmentLayer::setPlan(const std::vector<PlanEntry>& plan, const Eigen::MatrixX2d& a,
-                           const Eigen::MatrixX2d& b, std::size_t maxSegments) {
-  entries_.clear();
-  entries_.reserve(plan.size());
+                           const Eigen::MatrixX2d& b, std::size_t budget) {
+  all_.clear();
+  all_.reserve(plan.size());
   for (const auto& e : plan)
-    if (e.i >= 0 && e.i < a.rows() && e.j >= 0 && e.j < b.rows() && e.mass > 0) entries_.push_back(e);
-  if (entries_.size() > maxSegments) {
-    std::nth_element(entries_.begin(), entries_.begin() + std::ptrdiff_t(maxSegments), entries_.end(),
-                     [](const PlanEntry& x, const PlanEntry& y) { return x.mass > y.mass; });
-    entries_.resize(maxSegments);
-  }
+    if (e.i >= 0 && e.i < a.rows() && e.j >= 0 && e.j < b.rows() && e.mass > 0) all_.push_back(e);
+  allSeg_.resize(all_.size());
+  for (std::size_t k = 0; k < all_.size(); ++k)
+    allSeg_[k] = {a(all_[k].i, 0), a(all_[k].i, 1), b(all_[k].j, 0), b(all_[k].j, 1)};
+  const ThinnedPlan thin = thinByMass(all_, budget);
+  totalMass_ = thin.totalMass;
+  entries_.clear();
+  entries_.reserve(thin.drawn.size());
+  for (std::size_t k : thin.drawn) entries_.push_back(all_[k]);
   // Light segments first, so heavy ones are painted on top.
-  std::sort(entries_.begin(), entries_.end(),
-            [](const PlanEntry& x, const PlanEntry& y) { return x.mass < y.mass; });
+  std::stable_sort(entries_.begin(), entries_.end(),
+                   [](const PlanEntry& x, const PlanEntry& y) { return x.mass < y.mass; });
   seg_.resize(entries_.size());
   mass_.resize(entries_.size());
   maxMass_ = 0;
@@ -36,19 +43,57 @@ void SegmentLayer::setPlan(const std::vector<PlanEntry>& plan, const Eigen::Matr
   }
   // A vertex of the transport polytope has at most n + m − 1 entries; a spread-out (entropic)
   // plan has many more of similar mass, whose segments would pile up into a solid sheet. The
-  // effective number of entries (Σm)²/Σm² measures the spread; opacities are scaled by
-  // (n + m)/that, so the picture keeps showing where the mass goes.
+  // effective number of drawn entries (Σm)²/Σm² measures the spread; opacities are scaled by
+  // min(n + m, budget)/that, so the picture keeps showing where the mass goes.
   double sum = 0, sum2 = 0;
   for (double m : mass_) sum += m, sum2 += m * m;
   const double effective = sum2 > 0 ? sum * sum / sum2 : 1.0;
-  sparseness_ = std::min(1.0, double(a.rows() + b.rows()) / effective);
+  const double sparse = double(std::min<std::size_t>(std::size_t(a.rows() + b.rows()), std::max<std::size_t>(budget, 1)));
+  sparseness_ = std::min(1.0, sparse / effective);
+  updateName();
 }
 
 void SegmentLayer::clearPlan() {
+  all_.clear();
+  allSeg_.clear();
   entries_.clear();
   seg_.clear();
   mass_.clear();
   maxMass_ = 0;
+  totalMass_ = 0;
+  updateName();
+}
+
+void SegmentLayer::setLabel(const QString& label) {
+  label_ = label;
+  updateName();
+}
+
+void SegmentLayer::setThreshold(double fraction) {
+  threshold_ = fraction;
+  updateName();
+}
+
+double SegmentLayer::shownMassShare() const {
+  if (totalMass_ <= 0) return 0.0;
+  const double cut = threshold_ * maxMass_;
+  double shown = 0;
+  for (double m : mass_)
+    if (m >= cut) shown += m;
+  return std::clamp(shown / totalMass_, 0.0, 1.0);
+}
+
+void SegmentLayer::updateName() {
+  const std::size_t visible = visibleCount();
+  if (all_.empty() || visible == all_.size()) {
+    setName(label_);
+    return;
+  }
+  // "12%" (or "0.4%" below one per cent) of the mass, and how many segments carry it.
+  const double pct = 100.0 * shownMassShare();
+  const QString share = pct >= 1.0 || pct == 0.0 ? QString::number(std::round(pct)) : QString::number(pct, 'f', 1);
+  setName(tr("%1 — %2% of mass (%3 of %4 segments)")
+              .arg(label_, share, QLocale().toString(qulonglong(visible)), QLocale().toString(qulonglong(all_.size()))));
 }
 
 void SegmentLayer::setHighlight(bool fromA, int index) {
@@ -63,17 +108,17 @@ std::size_t SegmentLayer::visibleCount() const {
 
 std::vector<PlanEntry> SegmentLayer::entriesOf(bool fromA, int index) const {
   std::vector<PlanEntry> out;
-  for (const auto& e : entries_)
+  for (const auto& e : all_)
     if ((fromA ? e.i : e.j) == index) out.push_back(e);
   std::sort(out.begin(), out.end(), [](const PlanEntry& x, const PlanEntry& y) { return x.mass > y.mass; });
   return out;
 }
 
 QCPRange SegmentLayer::getKeyRange(bool& foundRange, QCP::SignDomain) const {
-  foundRange = !seg_.empty();
+  foundRange = !allSeg_.empty();
   if (!foundRange) return {};
-  QCPRange r(seg_[0][0], seg_[0][0]);
-  for (const auto& s : seg_) {
+  QCPRange r(allSeg_[0][0], allSeg_[0][0]);
+  for (const auto& s : allSeg_) {
     r.expand(s[0]);
     r.expand(s[2]);
   }
@@ -81,10 +126,10 @@ QCPRange SegmentLayer::getKeyRange(bool& foundRange, QCP::SignDomain) const {
 }
 
 QCPRange SegmentLayer::getValueRange(bool& foundRange, QCP::SignDomain, const QCPRange&) const {
-  foundRange = !seg_.empty();
+  foundRange = !allSeg_.empty();
   if (!foundRange) return {};
-  QCPRange r(seg_[0][1], seg_[0][1]);
-  for (const auto& s : seg_) {
+  QCPRange r(allSeg_[0][1], allSeg_[0][1]);
+  for (const auto& s : allSeg_) {
     r.expand(s[1]);
     r.expand(s[3]);
   }
@@ -103,13 +148,23 @@ void SegmentLayer::draw(QCPPainter* painter) {
   // cost a few milliseconds instead of one pen change each.
   constexpr int kLevels = 24;
   std::array<QVector<QLineF>, kLevels> lines;
+  double ink = 0.0;  // total length of the drawn lines, px
+  QRectF box;
   for (std::size_t k = 0; k < seg_.size(); ++k) {
     if (mass_[k] < cut) continue;
     if (anyHighlight && (hiFromA_ ? entries_[k].i : entries_[k].j) == hiIndex_) continue;  // drawn last
     const int level = std::min(kLevels - 1, int(mass_[k] / maxMass_ * kLevels));
-    lines[std::size_t(level)].append(
-        QLineF(coordsToPixels(seg_[k][0], seg_[k][1]), coordsToPixels(seg_[k][2], seg_[k][3])));
+    const QLineF line(coordsToPixels(seg_[k][0], seg_[k][1]), coordsToPixels(seg_[k][2], seg_[k][3]));
+    ink += line.length();
+    box |= QRectF(line.p1(), line.p2()).normalized().adjusted(-0.5, -0.5, 0.5, 0.5);
+    lines[std::size_t(level)].append(line);
   }
+  // Coverage: how many one-pixel lines cross an average pixel of the region they span. Above
+  // about one, opacities are scaled down so overlapping segments still show where mass runs
+  // dense instead of merging into a solid sheet that hides both clouds.
+  const QRectF region = box & QRectF(clipRect());
+  const double coverage = region.isEmpty() ? 0.0 : ink / (region.width() * region.height());
+  const double crowd = coverage > 1.0 ? 1.0 / coverage : 1.0;
   // A one-pixel cosmetic pen goes through the raster engine's fast line stroker, even
   // antialiased; wider pens take the general path stroker, ~20× slower per segment.
   QPen pen(color_, 1.0);
@@ -119,17 +174,18 @@ void SegmentLayer::draw(QCPPainter* painter) {
     if (lines[std::size_t(level)].isEmpty()) continue;
     QColor c = color_;
     const double share = (level + 0.5) / kLevels;
-    c.setAlphaF(std::clamp((0.05 + 0.5 * share) * sparseness_, 0.0, 1.0) * (anyHighlight ? 0.35 : 1.0));
+    c.setAlphaF(std::clamp((0.05 + 0.5 * share) * sparseness_ * crowd, 0.004, 1.0) * (anyHighlight ? 0.35 : 1.0));
     pen.setColor(c);
     painter->setPen(pen);
     painter->drawLines(lines[std::size_t(level)]);
   }
   if (!anyHighlight) return;
-  for (std::size_t k = 0; k < seg_.size(); ++k) {
-    if ((hiFromA_ ? entries_[k].i : entries_[k].j) != hiIndex_) continue;
-    QPen hp(color_, 1.0 + 3.0 * mass_[k] / maxMass_);
+  // Every segment of the hovered point, drawn or thinned away.
+  for (std::size_t k = 0; k < allSeg_.size(); ++k) {
+    if ((hiFromA_ ? all_[k].i : all_[k].j) != hiIndex_) continue;
+    QPen hp(color_, 1.0 + 3.0 * std::min(1.0, all_[k].mass / maxMass_));
     painter->setPen(hp);
-    painter->drawLine(coordsToPixels(seg_[k][0], seg_[k][1]), coordsToPixels(seg_[k][2], seg_[k][3]));
+    painter->drawLine(coordsToPixels(allSeg_[k][0], allSeg_[k][1]), coordsToPixels(allSeg_[k][2], allSeg_[k][3]));
   }
 }
 

@@ -54,6 +54,9 @@ int main(int argc, char** argv) {
 
   barrow::ui::MainWindow::Options options;
   options.screenshot = parser.isSet(shot);
+  // The demo's sweep only when the demo is what stays open: a sweep of the demo under the
+  // user's own clouds would only show up as out of date (and waste a core on large data).
+  options.autoSweep = !parser.isSet(cloudA) && parser.positionalArguments().isEmpty();
   barrow::ui::MainWindow window(options);
   window.setSession(barrow::demoSession());
   if (parser.isSet(cloudA) != parser.isSet(cloudB)) {
