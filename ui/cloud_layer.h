@@ -54,6 +54,8 @@ class CloudLayer : public QCPAbstractPlottable {
   /// fainter markers without outlines, so a cloud drawn first still shows through one drawn
   /// over it and dense regions read as denser.
   void adaptToCrowd();
+  /// Raster screens, very large clouds: all markers blended into one image (see .cpp).
+  void stampAll(QCPPainter* painter, const QRectF& clip, double dpr);
   QColor ringColor() const;
 
   Eigen::MatrixX2d points_;
@@ -67,6 +69,7 @@ class CloudLayer : public QCPAbstractPlottable {
   std::map<int, QPixmap> sprites_;  // by diameter in quarter pixels
   double spriteDpr_ = 0;
   double alpha_ = 0.78;
+  Eigen::Index visible_ = 0;  // points inside the clip rectangle at the last adaptToCrowd()
   double crowdScale_ = 1.0;
   bool outlined_ = true;
 };

@@ -151,13 +151,14 @@ void BM_DragStall(benchmark::State& state) {
   auto w = window(n);
   QWidget* plot = w->field()->view()->plot();
   const QPointF p0 = pixelOfA0(*w);
-  std::vector<double> gaps;
+  std::vector<double> gaps, moveMs;  // moveMs: the move event's own handler (synchronous part)
   int updates = 0;
   QObject::connect(w.get(), &MainWindow::liveUpdated, w.get(), [&](const barrow::ui::LiveUpdate& u) {
     if (!u.items.empty()) ++updates;
   });
   for (auto _ : state) {
     gaps.clear();
+    moveMs.clear();
     updates = 0;
     sendMouse(plot, QEvent::MouseButtonPress, p0, Qt::LeftButton);
     QElapsedTimer clock;
@@ -175,7 +176,10 @@ void BM_DragStall(benchmark::State& state) {
     mover.setTimerType(Qt::PreciseTimer);
     QObject::connect(&mover, &QTimer::timeout, [&] {
       ++k;
+      QElapsedTimer handler;
+      handler.start();
       sendMouse(plot, QEvent::MouseMove, p0 + QPointF(2.0 * (k % 40), 1.0 * (k % 9)), Qt::LeftButton);
+      moveMs.push_back(1e-6 * double(handler.nsecsElapsed()));
     });
     tick.start(1);
     mover.start(16);
@@ -189,6 +193,8 @@ void BM_DragStall(benchmark::State& state) {
   state.counters["max_gap_ms"] = quantile(gaps, 1.0);
   state.counters["p99_gap_ms"] = quantile(gaps, 0.99);
   state.counters["updates_drawn"] = updates;
+  state.counters["move_handler_max_ms"] = quantile(moveMs, 1.0);
+  state.counters["move_handler_median_ms"] = quantile(moveMs, 0.5);
 }
 
 // BM_LoadToQuickMeasures/n: from handing the window two new clouds of n points (as Open does
