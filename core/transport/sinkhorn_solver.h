@@ -55,6 +55,10 @@ struct SinkhornOptions {
   /// the place of the annealing stages on the full clouds.
   int coarseGrid = 32;
   int coarseFrom = 2000;
+  /// Truncated kernels (sinkhorn_truncated.h) where ε is small against the clouds' extent
+  /// (kept share of the pairs at most kMaxKeptShare) and both clouds have truncateFrom points.
+  bool truncation = true;
+  int truncateFrom = 1000;
   // Every field changes the result: each is part of the key of the shared store
   // (sinkhorn_cache.cpp, sameOptions), so a new field goes there too.
 };
@@ -73,6 +77,14 @@ struct SinkhornResult {
   int coarseIterations = 0;    // iterations of the coarse solve (coarse start), not in `iterations`
   int coarsePoints = 0;        // points of the coarse clouds together (0: no coarse start)
   double omega = 1.0;          // over-relaxation factor in use at the end (1: plain updates)
+  // Truncated kernel (sinkhorn_truncated.h): whether used, most pairs kept at once, times the
+  // kept set was rebuilt, the bound on the full plan's mass on dropped pairs at the end, and
+  // whether one dense pass checked the final marginals and value on all pairs.
+  bool truncated = false;
+  long long keptPairs = 0;
+  int truncations = 0;
+  double neglectedBound = 0.0;
+  bool fullCheck = false;
 
   bool usable() const {
     return status == SinkhornStatus::Converged || status == SinkhornStatus::MaxIterations;
