@@ -163,12 +163,30 @@ int coarseSide(const SinkhornOptions& o, int n) {
 double truncatedFrom(const SinkhornOptions& o, const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y) {
   if (!o.truncation || std::min(x.rows(), y.rows()) < o.truncateFrom) return 0.0;
   const double theta = truncationTheta(o.tolerance);
-  if (keptShareEstimate(x, y, o.p, o.epsilon, theta) > kMaxKeptShare) return 0.0;
+  const double pairs = double(x.rows()) * double(y.rows());
+  auto small = [&](double e) {
+    const double share = keptShareEstimate(x, y, o.p, e, theta);
+    return share <= kMaxKeptShare && share * pairs <= kMaxKeptPairs;
+  };
+  if (!small(o.epsilon)) return 0.0;
   const double top = std::pow(extentOf(x, y), o.p);
   double e = o.epsilon;
-  while (e / o.scalingFactor <= top && keptShareEstimate(x, y, o.p, e / o.scalingFactor, theta) <= kMaxKeptShare)
-    e /= o.scalingFactor;
+  while (e / o.scalingFactor <= top && small(e / o.scalingFactor)) e /= o.scalingFactor;
   return e;
+}
+
+// The ε for a coarse start of the truncated path: the smallest ε·(1/factor)^k at which the
+// grid cells are fine enough for the kernel (coarseFineEnough), if it is at most `from`
+// (else 0: no coarse start).
+double coarseTruncationStart(const SinkhornOptions& o, const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y,
+                             double from) {
+  const int n = int(std::min(x.rows(), y.rows()));
+  if (!coarseApplies(o, n, n)) return 0.0;
+  const int side = coarseSide(o, n);
+  double e = o.epsilon;
+  for (int k = 0; k < 200 && !coarseFineEnough(SinkhornOptions{.epsilon = e, .p = o.p}, side, x, y); ++k)
+    e /= o.scalingFactor;
+  return e <= from * (1 + 1e-12) ? e : 0.0;
 }
 
 // The truncated path: potentials loosely solved at `from` by the dense solver (its coarse
@@ -179,6 +197,7 @@ bool solveTruncatedPath(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, con
                         const Eigen::VectorXd* startF, const Eigen::VectorXd* startG, double from, bool symmetric,
                         RowWorkers& team, SinkhornResult& out) {
   SinkhornResult pre;
+  double startOmega = 1.0;
   pre.iterations = 0;
   pre.stages = 0;
   Eigen::VectorXd f, g;
@@ -186,6 +205,31 @@ bool solveTruncatedPath(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, con
     f = *startF;
     g = startG ? *startG : *startF;
     from = o.epsilon;
+  } else if (const double ec = coarseTruncationStart(o, x, y, from); ec > 0) {
+    // Coarse start straight at ec: the grid summaries are solved there and their potentials
+    // carried to every point (sinkhorn_coarse.h); no dense pass over the full clouds.
+    const int side = coarseSide(o, int(std::min(x.rows(), y.rows())));
+    const CoarseCloud cx = coarsenOnGrid(x, a, side);
+    const CoarseCloud cy = symmetric ? cx : coarsenOnGrid(y, b, side);
+    SinkhornOptions co = coarseOptions(o);
+    co.epsilon = ec;
+    co.truncation = false;
+    const RunControl part = control ? control->sub(0.0, 0.2) : RunControl{};
+    const SinkhornResult c = symmetric ? solveSinkhornSymmetric(cx.x, cx.w, co, control ? &part : nullptr, nullptr, &team)
+                                       : solveSinkhorn(cx.x, cx.w, cy.x, cy.w, co, control ? &part : nullptr, nullptr, &team);
+    if (c.status == SinkhornStatus::Cancelled) {
+      out = c;
+      out.message = "cancelled during the coarse start";
+      return true;
+    }
+    if (!c.usable()) return false;
+    f = extendPotential(x, cy, symmetric ? c.f : c.g, ec, o.p, team);
+    g = symmetric ? f : extendPotential(y, cx, c.f, ec, o.p, team);
+    if (!f.allFinite() || !g.allFinite()) return false;
+    pre.coarseIterations = c.iterations;
+    pre.coarsePoints = int(cx.x.rows() + (symmetric ? 0 : cy.x.rows()));
+    from = ec;
+    if (ec == o.epsilon) startOmega = c.omega;  // same ε: nearly the same rate
   } else {
     SinkhornOptions loose = o;
     loose.epsilon = from;
@@ -206,7 +250,7 @@ bool solveTruncatedPath(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, con
   rest.maxIterations = std::max(1, o.maxIterations - pre.iterations);
   const RunControl part = control ? control->sub(startF ? 0.0 : 0.2, 1.0) : RunControl{};
   out = solveSinkhornTruncated(x, a, y, b, rest, control ? &part : nullptr, std::move(f), std::move(g), from,
-                               symmetric, team);
+                               symmetric, team, startOmega);
   out.iterations += pre.iterations;
   out.stages += pre.stages;
   out.coarseIterations = pre.coarseIterations;

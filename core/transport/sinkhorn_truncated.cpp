@@ -298,7 +298,7 @@ std::string text(double v) {
 SinkhornResult solveSinkhornTruncated(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, const Eigen::MatrixX2d& y,
                                       const Eigen::VectorXd& b, const SinkhornOptions& o, const RunControl* control,
                                       Eigen::VectorXd f, Eigen::VectorXd g, double startEpsilon, bool symmetric,
-                                      kernel::RowWorkers& workers) {
+                                      kernel::RowWorkers& workers, double startOmega) {
   SinkhornResult r;
   const int n = int(x.rows()), m = int(y.rows());
   if (symmetric) g = f;
@@ -316,6 +316,7 @@ SinkhornResult solveSinkhornTruncated(const Eigen::MatrixX2d& x, const Eigen::Ve
 
   std::vector<double> hB(m), hA(n), guessF(n), guessG(m), out(std::max(n, m)), ratio(n);
   SinkhornRelaxation relax;
+  if (o.overRelaxation && eps.size() == 1) relax.startAt(startOmega);
   Eigen::VectorXd lastF, lastG;
   double mass = 1.0, e = o.epsilon, firstError = -1.0;
   bool converged = false, cancelled = false;
@@ -323,12 +324,14 @@ SinkhornResult solveSinkhornTruncated(const Eigen::MatrixX2d& x, const Eigen::Ve
   for (int s = 0; s < int(eps.size()) && !converged && !cancelled; ++s) {
     e = eps[s];
     const bool last = s + 1 == int(eps.size());
-    kernel.build(f, g, e, theta, workers);
+    // Annealing stages stop at the loose stageTolerance: a smaller θ suffices there.
+    const double th = last ? theta : std::min(theta, truncationTheta(o.stageTolerance));
+    kernel.build(f, g, e, th, workers);
     if (symmetric) f = g = f.cwiseMax(g);  // a fix on either side is a fix of the one potential
     ++r.truncations;
     for (int stageIt = 0;; ++stageIt) {
       if (kernel.drift(f, g, e) > kDriftLimit) {
-        kernel.build(f, g, e, theta, workers);
+        kernel.build(f, g, e, th, workers);
         if (symmetric) f = g = f.cwiseMax(g);
         ++r.truncations;
       }
@@ -344,7 +347,7 @@ SinkhornResult solveSinkhornTruncated(const Eigen::MatrixX2d& x, const Eigen::Ve
         continue;
       }
       if (last && firstError < 0) firstError = r.marginalError;
-      if (last && local > 0 && r.marginalError <= o.tolerance) {
+      if (last && local > 0 && r.marginalError + kernel.neglectedBound(f, g, e) <= o.tolerance) {
         converged = true;
         break;
       }
@@ -388,14 +391,9 @@ SinkhornResult solveSinkhornTruncated(const Eigen::MatrixX2d& x, const Eigen::Ve
   double fullError = r.marginalError + r.neglectedBound;
   if (!cancelled && double(n) * double(m) <= kDenseCheckPairs) {
     const std::vector<double> rowRatio = denseRatios(x, f, y, b, g, e, o.p, workers);
-    double rowError = 0.0, fullMass = 0.0, colError = 0.0, colMass = 0.0;
+    double rowError = 0.0, fullMass = 0.0;
     marginals(a, rowRatio.data(), &rowError, &fullMass);
-    fullError = rowError;
-    if (!symmetric) {
-      const std::vector<double> colRatio = denseRatios(y, g, x, a, f, e, o.p, workers);
-      marginals(b, colRatio.data(), &colError, &colMass);
-      fullError = std::max(rowError, colError);
-    }
+    fullError = rowError;  // rows, as the dense solver measures (sinkhorn_solver.h)
     if (std::isfinite(fullMass)) value = a.dot(f) + b.dot(g) - e * (fullMass - 1.0);
     r.fullCheck = true;
   }

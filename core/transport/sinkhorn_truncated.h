@@ -88,6 +88,8 @@ double truncationTheta(double tolerance);
 double keptShareEstimate(const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y, int p, double epsilon, double theta);
 
 inline constexpr double kMaxKeptShare = 0.1;
+/// Memory guard: about 24 bytes a kept pair (both orders), so at most ~1.2 GB.
+inline constexpr double kMaxKeptPairs = 5e7;
 inline constexpr double kDriftLimit = 2.0;
 inline constexpr double kDenseCheckPairs = 4e8;
 
@@ -95,9 +97,12 @@ inline constexpr double kDenseCheckPairs = 4e8;
 /// ε-scaling from there down to options.epsilon, the last stage to options.tolerance with
 /// over-relaxation, then the full-problem check of the file comment. `symmetric`: y, b are
 /// x, a and the averaged update is used (g is then ignored and returned equal to f).
+/// `startOmega` > 1: the last stage starts over-relaxed at that factor (one a coarse solve
+/// of the same problem at the target ε ended with, as in sinkhorn_solver.h).
 SinkhornResult solveSinkhornTruncated(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, const Eigen::MatrixX2d& y,
                                       const Eigen::VectorXd& b, const SinkhornOptions& options,
                                       const RunControl* control, Eigen::VectorXd f, Eigen::VectorXd g,
-                                      double startEpsilon, bool symmetric, kernel::RowWorkers& workers);
+                                      double startEpsilon, bool symmetric, kernel::RowWorkers& workers,
+                                      double startOmega = 1.0);
 
 }  // namespace barrow
