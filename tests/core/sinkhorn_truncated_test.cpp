@@ -189,17 +189,25 @@ TEST(TruncatedSinkhornTest, WarmStartAndThreadsChangeOnlyTheSpeed) {
   ASSERT_TRUE(cold1.truncated);
   const double accuracy = o.tolerance * largestCost(q, 2);
   EXPECT_NEAR(cold1.value, cold2.value, accuracy);
-  // Move A a little (a tenth of the kernel's length sqrt(ε)) and start from the old potentials.
+  // From its own solution a warm start has almost nothing left to do.
+  const SinkhornStart own{&cold1.f, &cold1.g};
+  const SinkhornResult again = solveSinkhorn(q.x, q.a, q.y, q.b, o, &two, &own);
+  ASSERT_EQ(again.status, SinkhornStatus::Converged) << again.message;
+  EXPECT_TRUE(again.warmStarted);
+  EXPECT_TRUE(again.truncated);
+  EXPECT_NEAR(again.value, cold1.value, accuracy);
+  EXPECT_LE(again.iterations, 3);
+  // From another problem's potentials (A moved by about one kernel length): the same value
+  // as a cold solve of the moved problem. (Not necessarily faster: without annealing the
+  // smooth part of the mismatch decays slowly at small ε.)
   Pair moved = q;
-  moved.x.col(0).array() += 0.1 * std::sqrt(o.epsilon);
-  const SinkhornStart start{&cold1.f, &cold1.g};
-  const SinkhornResult warm = solveSinkhorn(moved.x, moved.a, moved.y, moved.b, o, &two, &start);
+  moved.x.col(0).array() += std::sqrt(o.epsilon);
+  const SinkhornResult warm = solveSinkhorn(moved.x, moved.a, moved.y, moved.b, o, &two, &own);
   const SinkhornResult cold = solveSinkhorn(moved.x, moved.a, moved.y, moved.b, o, &two);
   ASSERT_EQ(warm.status, SinkhornStatus::Converged) << warm.message;
-  EXPECT_TRUE(warm.warmStarted);
-  EXPECT_TRUE(warm.truncated);
+  ASSERT_EQ(cold.status, SinkhornStatus::Converged) << cold.message;
   EXPECT_NEAR(warm.value, cold.value, accuracy);
-  EXPECT_LT(warm.iterations, cold.iterations);
+  EXPECT_LE(fullRowError(moved, warm.f, warm.g, o.epsilon, 2), o.tolerance * (1 + 1e-6));
 }
 
 TEST(BoxTreeTest, NodeMaximaAndBoxesCoverTheirPoints) {
@@ -216,7 +224,9 @@ TEST(BoxTreeTest, NodeMaximaAndBoxesCoverTheirPoints) {
       EXPECT_EQ(BoxTree::boxDistance2(n, q.x(i, 0), q.x(i, 1)), 0.0);
     }
     EXPECT_EQ(mx[k], best);
-    if (n.left >= 0) EXPECT_GT(n.left, int(k));
+    if (n.left >= 0) {
+      EXPECT_GT(n.left, int(k));
+    }
   }
 }
 
