@@ -23,6 +23,13 @@
 // 42 → 9 for a self term, the value unchanged to 1e-13 relative (bench_entropic_pair,
 // tests/bench/RESULTS-entropic.md).
 //
+// Small ε (the estimated share of pairs within θ ε of the optimum at most kMaxKeptShare,
+// sinkhorn_truncated.h; never at the default ε = (D/20)^p): the iteration runs on a truncated
+// kernel instead, from a coarse start at the first ε where the grid is fine enough, with
+// ε-scaling; the final marginals and value are checked on all pairs, and the result carries
+// a bound on the plan mass the truncation left out. Measured at 10^4 + 10^4, ε = 1e-4: 28x
+// less CPU than the dense iteration, value unchanged to 1e-16 (RESULTS-entropic.md).
+//
 // Units: ε and the potentials f, g are in cost units (length^p). Weights a, b are normalised
 // here (they need not sum to 1). Convergence is measured by the L1 error of the row
 // marginals of the current plan (its columns are nearly exact after each full iteration).
