@@ -218,8 +218,11 @@ bool solveTruncatedPath(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, con
     const SinkhornResult c = symmetric ? solveSinkhornSymmetric(cx.x, cx.w, co, control ? &part : nullptr, nullptr, &team)
                                        : solveSinkhorn(cx.x, cx.w, cy.x, cy.w, co, control ? &part : nullptr, nullptr, &team);
     if (c.status == SinkhornStatus::Cancelled) {
-      out = c;
+      out = SinkhornResult{};
+      out.status = SinkhornStatus::Cancelled;
       out.message = "cancelled during the coarse start";
+      out.f = Eigen::VectorXd::Zero(x.rows());  // sized for the caller's clouds, as the dense path
+      if (!symmetric) out.g = Eigen::VectorXd::Zero(y.rows());
       return true;
     }
     if (!c.usable()) return false;

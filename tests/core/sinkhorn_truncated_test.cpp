@@ -7,6 +7,7 @@
 // "Truncated kernels").
 #include <gtest/gtest.h>
 
+#include <atomic>
 #include <cmath>
 #include <random>
 
@@ -208,6 +209,35 @@ TEST(TruncatedSinkhornTest, WarmStartAndThreadsChangeOnlyTheSpeed) {
   ASSERT_EQ(cold.status, SinkhornStatus::Converged) << cold.message;
   EXPECT_NEAR(warm.value, cold.value, accuracy);
   EXPECT_LE(fullRowError(moved, warm.f, warm.g, o.epsilon, 2), o.tolerance * (1 + 1e-6));
+}
+
+TEST(TruncatedSinkhornTest, StopsWhenCancelledAndReportsProgress) {
+  const Pair q = randomPair(2000, 2000, 17);
+  SinkhornOptions o;
+  o.epsilon = 1e-4;
+  std::atomic<bool> cancel{false};
+  double lastFraction = -1.0;
+  int late = 0;
+  RunControl control;
+  control.cancel = &cancel;
+  control.onProgress = [&](double fraction) {
+    lastFraction = fraction;
+    if (fraction >= 0.2 && ++late == 20) cancel = true;  // inside the truncated stages
+    return true;
+  };
+  const SinkhornResult r = solveSinkhorn(q.x, q.a, q.y, q.b, o, &control);
+  EXPECT_EQ(r.status, SinkhornStatus::Cancelled);
+  EXPECT_TRUE(r.truncated);
+  EXPECT_GE(lastFraction, 0.2);
+  EXPECT_LE(lastFraction, 1.0);
+  EXPECT_EQ(r.f.size(), 2000);
+  // Cancelled during the coarse start: the potentials still have the clouds' sizes.
+  cancel = false;
+  control.onProgress = [&](double) { return !(cancel = true); };
+  const SinkhornResult early = solveSinkhorn(q.x, q.a, q.y, q.b, o, &control);
+  EXPECT_EQ(early.status, SinkhornStatus::Cancelled);
+  EXPECT_EQ(early.f.size(), 2000);
+  EXPECT_EQ(early.g.size(), 2000);
 }
 
 TEST(BoxTreeTest, NodeMaximaAndBoxesCoverTheirPoints) {
