@@ -9,6 +9,7 @@
 
 #include <atomic>
 #include <cmath>
+#include <cstdio>
 #include <random>
 
 #include "spatial/box_tree.h"
@@ -159,7 +160,9 @@ TEST(TruncatedKernelTest, KeepsEveryPairAboveTheThresholdAndBoundsTheRest) {
       const double bound = k.neglectedBound(f2, g2, epsNow);
       EXPECT_GT(double(dropped), 0.0);
       EXPECT_LE(double(dropped), bound);
-      RecordProperty(c.p == 2 ? "p2" : "p1", std::to_string(double(dropped)) + " <= " + std::to_string(bound));
+      char line[96];
+      std::snprintf(line, sizeof line, "%.3g <= %.3g", double(dropped), bound);
+      RecordProperty("p" + std::to_string(c.p) + (epsNow == c.eps ? "_eps" : "_0.7eps"), line);
     }
   }
 }
