@@ -125,6 +125,12 @@ void addSolveDetails(nlohmann::json& d, const std::string& prefix, const Sinkhor
   d[prefix + "warm_start"] = r.warmStarted;
   d[prefix + "coarse_points"] = r.coarsePoints;  // 0: no coarse-to-fine start (sinkhorn_coarse.h)
   d[prefix + "coarse_iterations"] = r.coarseIterations;
+  d[prefix + "truncated"] = r.truncated;  // truncated kernel (sinkhorn_truncated.h)
+  if (r.truncated) {
+    d[prefix + "kept_pairs"] = r.keptPairs;
+    d[prefix + "neglected_mass_bound"] = r.neglectedBound;  // full plan's mass on dropped pairs, at most
+    d[prefix + "full_check"] = r.fullCheck;  // final marginals and value measured on all pairs
+  }
 }
 
 Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {

@@ -43,7 +43,8 @@ bool sameOptions(const SinkhornOptions& s, const SinkhornOptions& o) {
   return s.epsilon == o.epsilon && s.p == o.p && s.maxIterations == o.maxIterations && s.tolerance == o.tolerance &&
          s.epsilonScaling == o.epsilonScaling && s.scalingFactor == o.scalingFactor &&
          s.stageIterations == o.stageIterations && s.stageTolerance == o.stageTolerance &&
-         s.overRelaxation == o.overRelaxation && s.coarseGrid == o.coarseGrid && s.coarseFrom == o.coarseFrom;
+         s.overRelaxation == o.overRelaxation && s.coarseGrid == o.coarseGrid && s.coarseFrom == o.coarseFrom &&
+         s.truncation == o.truncation && s.truncateFrom == o.truncateFrom;
 }
 
 std::uint64_t hashOptions(const SinkhornOptions& o) {
@@ -57,7 +58,9 @@ std::uint64_t hashOptions(const SinkhornOptions& o) {
   h = mixDouble(h, o.stageTolerance);
   h = mixWord(h, o.overRelaxation ? 1 : 0);
   h = mixWord(h, std::uint64_t(o.coarseGrid));
-  return mixWord(h, std::uint64_t(o.coarseFrom));
+  h = mixWord(h, std::uint64_t(o.coarseFrom));
+  h = mixWord(h, o.truncation ? 1 : 0);
+  return mixWord(h, std::uint64_t(o.truncateFrom));
 }
 
 std::size_t bytesOf(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a) {

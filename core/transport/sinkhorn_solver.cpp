@@ -9,6 +9,7 @@
 #include "transport/kernel_pass.h"
 #include "transport/sinkhorn_coarse.h"
 #include "transport/sinkhorn_relaxation.h"
+#include "transport/sinkhorn_truncated.h"
 
 namespace barrow {
 
@@ -156,6 +157,111 @@ int coarseSide(const SinkhornOptions& o, int n) {
   return std::max(1, std::min(o.coarseGrid, int(std::sqrt(n / 4.0))));
 }
 
+// The ε at which the truncated solver takes over (sinkhorn_truncated.h): the largest
+// ε·(1/factor)^k, at most extent^p, whose estimated kept share is small; 0 when even the
+// target ε keeps too many pairs (or truncation is off, or a cloud is small).
+double truncatedFrom(const SinkhornOptions& o, const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y) {
+  if (!o.truncation || std::min(x.rows(), y.rows()) < o.truncateFrom) return 0.0;
+  const double theta = truncationTheta(o.tolerance);
+  const double pairs = double(x.rows()) * double(y.rows());
+  auto small = [&](double e) {
+    const double share = keptShareEstimate(x, y, o.p, e, theta);
+    return share <= kMaxKeptShare && share * pairs <= kMaxKeptPairs;
+  };
+  if (!small(o.epsilon)) return 0.0;
+  const double top = std::pow(extentOf(x, y), o.p);
+  double e = o.epsilon;
+  while (e / o.scalingFactor <= top && small(e / o.scalingFactor)) e /= o.scalingFactor;
+  return e;
+}
+
+// The ε for a coarse start of the truncated path: the smallest ε·(1/factor)^k at which the
+// grid cells are fine enough for the kernel (coarseFineEnough), if it is at most `from`
+// (else 0: no coarse start).
+double coarseTruncationStart(const SinkhornOptions& o, const Eigen::MatrixX2d& x, const Eigen::MatrixX2d& y,
+                             double from) {
+  const int n = int(std::min(x.rows(), y.rows()));
+  if (!coarseApplies(o, n, n)) return 0.0;
+  const int side = coarseSide(o, n);
+  double e = o.epsilon;
+  for (int k = 0; k < 200 && !coarseFineEnough(SinkhornOptions{.epsilon = e, .p = o.p}, side, x, y); ++k)
+    e /= o.scalingFactor;
+  return e <= from * (1 + 1e-12) ? e : 0.0;
+}
+
+// The truncated path: potentials loosely solved at `from` by the dense solver (its coarse
+// start included), or the warm start's at the target, then the truncated solver.
+// Returns false (and leaves `out` alone) when the loose solve gave nothing to start from.
+bool solveTruncatedPath(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, const Eigen::MatrixX2d& y,
+                        const Eigen::VectorXd& b, const SinkhornOptions& o, const RunControl* control,
+                        const Eigen::VectorXd* startF, const Eigen::VectorXd* startG, double from, bool symmetric,
+                        RowWorkers& team, SinkhornResult& out) {
+  SinkhornResult pre;
+  double startOmega = 1.0;
+  pre.iterations = 0;
+  pre.stages = 0;
+  Eigen::VectorXd f, g;
+  if (startF) {
+    f = *startF;
+    g = startG ? *startG : *startF;
+    from = o.epsilon;
+  } else if (const double ec = coarseTruncationStart(o, x, y, from); ec > 0) {
+    // Coarse start straight at ec: the grid summaries are solved there and their potentials
+    // carried to every point (sinkhorn_coarse.h); no dense pass over the full clouds.
+    const int side = coarseSide(o, int(std::min(x.rows(), y.rows())));
+    const CoarseCloud cx = coarsenOnGrid(x, a, side);
+    const CoarseCloud cy = symmetric ? cx : coarsenOnGrid(y, b, side);
+    SinkhornOptions co = coarseOptions(o);
+    co.epsilon = ec;
+    co.truncation = false;
+    const RunControl part = control ? control->sub(0.0, 0.2) : RunControl{};
+    const SinkhornResult c = symmetric ? solveSinkhornSymmetric(cx.x, cx.w, co, control ? &part : nullptr, nullptr, &team)
+                                       : solveSinkhorn(cx.x, cx.w, cy.x, cy.w, co, control ? &part : nullptr, nullptr, &team);
+    if (c.status == SinkhornStatus::Cancelled) {
+      out = SinkhornResult{};
+      out.status = SinkhornStatus::Cancelled;
+      out.message = "cancelled during the coarse start";
+      out.f = Eigen::VectorXd::Zero(x.rows());  // sized for the caller's clouds, as the dense path
+      if (!symmetric) out.g = Eigen::VectorXd::Zero(y.rows());
+      return true;
+    }
+    if (!c.usable()) return false;
+    f = extendPotential(x, cy, symmetric ? c.f : c.g, ec, o.p, team);
+    g = symmetric ? f : extendPotential(y, cx, c.f, ec, o.p, team);
+    if (!f.allFinite() || !g.allFinite()) return false;
+    pre.coarseIterations = c.iterations;
+    pre.coarsePoints = int(cx.x.rows() + (symmetric ? 0 : cy.x.rows()));
+    from = ec;
+    if (ec == o.epsilon) startOmega = c.omega;  // same ε: nearly the same rate
+  } else {
+    SinkhornOptions loose = o;
+    loose.epsilon = from;
+    loose.tolerance = std::max(o.tolerance, o.stageTolerance);
+    loose.truncation = false;
+    const RunControl part = control ? control->sub(0.0, 0.2) : RunControl{};
+    pre = symmetric ? solveSinkhornSymmetric(x, a, loose, control ? &part : nullptr, nullptr, &team)
+                    : solveSinkhorn(x, a, y, b, loose, control ? &part : nullptr, nullptr, &team);
+    if (pre.status == SinkhornStatus::Cancelled) {
+      out = pre;
+      return true;
+    }
+    if (!pre.usable() || !pre.f.allFinite() || (!symmetric && !pre.g.allFinite())) return false;
+    f = pre.f;
+    g = symmetric ? pre.f : pre.g;
+  }
+  SinkhornOptions rest = o;
+  rest.maxIterations = std::max(1, o.maxIterations - pre.iterations);
+  const RunControl part = control ? control->sub(startF ? 0.0 : 0.2, 1.0) : RunControl{};
+  out = solveSinkhornTruncated(x, a, y, b, rest, control ? &part : nullptr, std::move(f), std::move(g), from,
+                               symmetric, team, startOmega);
+  out.iterations += pre.iterations;
+  out.stages += pre.stages;
+  out.coarseIterations = pre.coarseIterations;
+  out.coarsePoints = pre.coarsePoints;
+  out.warmStarted = startF != nullptr;
+  return true;
+}
+
 }  // namespace
 
 std::string checkSinkhornOptions(const SinkhornOptions& o) {
@@ -193,6 +299,13 @@ SinkhornResult solveSinkhorn(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a
     SinkhornResult same = solveSinkhornSymmetric(x, a, o, control, mid.size() ? &mid : nullptr, team.use);
     same.g = same.f;
     return same;
+  }
+  if (const double from = truncatedFrom(o, x, y); from > 0) {
+    const bool warm = start && start->f && start->g && start->f->size() == n && start->g->size() == m &&
+                      start->f->allFinite() && start->g->allFinite();
+    if (solveTruncatedPath(x, a, y, b, o, control, warm ? start->f : nullptr, warm ? start->g : nullptr, from,
+                           false, *team.use, r))
+      return r;
   }
   const std::vector<double> logA = kernel::paddedLogWeights(a), logB = kernel::paddedLogWeights(b);
 
@@ -297,6 +410,11 @@ SinkhornResult solveSinkhornSymmetric(const Eigen::MatrixX2d& x, const Eigen::Ve
   const Eigen::VectorXd a = aIn / aIn.sum();
   const std::vector<double> logA = kernel::paddedLogWeights(a);
   Team team(workers, control);
+  if (const double from = truncatedFrom(o, x, x); from > 0) {
+    const bool warm = startF && startF->size() == n && startF->allFinite();
+    if (solveTruncatedPath(x, a, x, a, o, control, warm ? startF : nullptr, nullptr, from, true, *team.use, r))
+      return r;
+  }
 
   r.f = Eigen::VectorXd::Zero(n);
   r.warmStarted = startF && startF->size() == n && startF->allFinite();

@@ -23,6 +23,13 @@
 // 42 → 9 for a self term, the value unchanged to 1e-13 relative (bench_entropic_pair,
 // tests/bench/RESULTS-entropic.md).
 //
+// Small ε (the estimated share of pairs within θ ε of the optimum at most kMaxKeptShare,
+// sinkhorn_truncated.h; never at the default ε = (D/20)^p): the iteration runs on a truncated
+// kernel instead, from a coarse start at the first ε where the grid is fine enough, with
+// ε-scaling; the final marginals and value are checked on all pairs, and the result carries
+// a bound on the plan mass the truncation left out. Measured at 10^4 + 10^4, ε = 1e-4: 28x
+// less CPU than the dense iteration, value unchanged to 1e-16 (RESULTS-entropic.md).
+//
 // Units: ε and the potentials f, g are in cost units (length^p). Weights a, b are normalised
 // here (they need not sum to 1). Convergence is measured by the L1 error of the row
 // marginals of the current plan (its columns are nearly exact after each full iteration).
@@ -55,6 +62,10 @@ struct SinkhornOptions {
   /// the place of the annealing stages on the full clouds.
   int coarseGrid = 32;
   int coarseFrom = 2000;
+  /// Truncated kernels (sinkhorn_truncated.h) where ε is small against the clouds' extent
+  /// (kept share of the pairs at most kMaxKeptShare) and both clouds have truncateFrom points.
+  bool truncation = true;
+  int truncateFrom = 1000;
   // Every field changes the result: each is part of the key of the shared store
   // (sinkhorn_cache.cpp, sameOptions), so a new field goes there too.
 };
@@ -73,6 +84,14 @@ struct SinkhornResult {
   int coarseIterations = 0;    // iterations of the coarse solve (coarse start), not in `iterations`
   int coarsePoints = 0;        // points of the coarse clouds together (0: no coarse start)
   double omega = 1.0;          // over-relaxation factor in use at the end (1: plain updates)
+  // Truncated kernel (sinkhorn_truncated.h): whether used, most pairs kept at once, times the
+  // kept set was rebuilt, the bound on the full plan's mass on dropped pairs at the end, and
+  // whether one dense pass checked the final marginals and value on all pairs.
+  bool truncated = false;
+  long long keptPairs = 0;
+  int truncations = 0;
+  double neglectedBound = 0.0;
+  bool fullCheck = false;
 
   bool usable() const {
     return status == SinkhornStatus::Converged || status == SinkhornStatus::MaxIterations;

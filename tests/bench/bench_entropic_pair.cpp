@@ -102,6 +102,38 @@ void BM_PairAfter(benchmark::State& state) {
   }
 }
 
+// OT_ε(A, B) alone at small ε, dense (truncation off: the solver as before) or truncated
+// (transport/sinkhorn_truncated.h). Args: n, case (0: ε = (D/50)², p = 2; 1: ε = 1e-4, p = 2;
+// 2: ε = D/50, p = 1), truncation (0/1).
+void BM_SmallEpsilon(benchmark::State& state) {
+  const int n = int(state.range(0)), kind = int(state.range(1));
+  const bool truncate = state.range(2) != 0;
+  const Cloud a = uniformCloud(n, 1, 0.0, 0.0), b = uniformCloud(n, 2, 0.5, 0.2);
+  ParamSet params;
+  params.setNumber("entropic.p", kind == 2 ? 1 : 2);
+  EntropicSettings settings = readEntropicSettings("entropic", params, a, b);
+  SinkhornOptions o = settings.options;
+  o.epsilon = kind == 1 ? 1e-4 : std::pow(settings.diameter / 50.0, o.p);
+  o.truncation = truncate;
+  const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
+  for (auto _ : state) {
+    const double cpu0 = cpuSeconds();
+    const SinkhornResult r = solveSinkhorn(a.points, wa, b.points, wb, o);
+    state.counters["cpu_s"] = cpuSeconds() - cpu0;
+    state.counters["it"] = r.iterations;
+    state.counters["kept_share"] = double(r.keptPairs) / (double(n) * n);
+    state.counters["bound"] = r.neglectedBound;
+    std::fprintf(stderr, "small-eps n=%d p=%d eps=%.4g %s: %.17g (%d it, %d coarse, err %.3g, kept %lld, bound %.3g)\n",
+                 n, o.p, o.epsilon, r.truncated ? "truncated" : "dense", r.value, r.iterations, r.coarseIterations,
+                 r.marginalError, r.keptPairs, r.neglectedBound);
+  }
+}
+
+BENCHMARK(BM_SmallEpsilon)
+    ->Args({10000, 0, 0})->Args({10000, 0, 1})->Args({10000, 1, 0})->Args({10000, 1, 1})
+    ->Args({10000, 2, 0})->Args({10000, 2, 1})
+    ->Unit(benchmark::kSecond)->UseRealTime()->Iterations(1);
+
 BENCHMARK(BM_PairBefore)->Arg(4000)->Arg(10000)->Unit(benchmark::kSecond)->UseRealTime()->Iterations(1);
 BENCHMARK(BM_PairAfter)->Arg(4000)->Arg(10000)->Unit(benchmark::kSecond)->UseRealTime()->Iterations(1);
 
