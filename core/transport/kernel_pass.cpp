@@ -233,10 +233,12 @@ int grainFor(int rows, int cols) {
 }
 
 void logSumExpRows(const ScaledPoints& rows, const ScaledPoints& cols, const std::vector<double>& h,
-                   int p, const double* guess, double* out, double* ratio, RowWorkers& workers) {
+                   int p, const double* guess, double* out, double* ratio, RowWorkers& workers,
+                   const std::atomic<bool>* stop) {
   const double* hp = h.data();
   const bool avx = useAvx2();
   workers.run(rows.size, grainFor(rows.size, cols.size), [&](int b, int e) {
+    if (stop && stop->load(std::memory_order_relaxed)) return;
     if (avx && p == 2) lseRange<2, true>(b, e, rows, cols, hp, guess, out, ratio);
     else if (avx) lseRange<1, true>(b, e, rows, cols, hp, guess, out, ratio);
     else if (p == 2) lseRange<2, false>(b, e, rows, cols, hp, guess, out, ratio);

@@ -10,6 +10,7 @@
 #pragma once
 
 #include <Eigen/Core>
+#include <atomic>
 #include <vector>
 
 #include "base/row_workers.h"
@@ -44,8 +45,12 @@ std::vector<double> paddedLogWeights(const Eigen::VectorXd& w);
 /// overflows. `ratio_i` (optional) receives exp(out_i − guess_i) (0 or +inf possible for
 /// recomputed rows): with guess = −f/ε it is the row marginal of the current plan divided by
 /// a_i. Pre: h.size() == cols.padded(); p ∈ {1, 2}.
+/// `stop` (optional): once it reads true, the remaining chunks are skipped and `out`/`ratio`
+/// are left partly stale, so a caller that passes it must check it before using them (a
+/// pass at 10^4 + 10^4 takes ~0.1 s; this lets a cancel end it early).
 void logSumExpRows(const ScaledPoints& rows, const ScaledPoints& cols, const std::vector<double>& h,
-                   int p, const double* guess, double* out, double* ratio, RowWorkers& workers);
+                   int p, const double* guess, double* out, double* ratio, RowWorkers& workers,
+                   const std::atomic<bool>* stop = nullptr);
 
 /// Weighted row sums for gradients: with e_ij = exp(h_j − c̃_ij − o_i),
 ///   s0_i = Σ_j e_ij,  sx_i = Σ_j e_ij d_ij.x,  sy_i = Σ_j e_ij d_ij.y,
