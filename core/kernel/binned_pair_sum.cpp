@@ -251,7 +251,7 @@ std::optional<BinnedSums> binnedPairSums(const SupportPoints& a, const SupportPo
   out.bb = s.bb + nearBB;
   out.ab = s.ab + nearAB;
   // FFT rounding: each computed transform is within ~6 log2(P) u of the exact one in the
-  // 2-norm (REFERENCES K2); through the three factors of a Parseval sum and Cauchy-Schwarz
+  // 2-norm (Higham 2002, Sec. 24.1 (mem)); through the three factors of a Parseval sum and Cauchy-Schwarz
   // (|A^|_2 = sqrt(P) |A|_2, |T^|_inf <= sum |T|) the sum is off by at most
   // 3 * 6 log2(P) u |Z|_2^2 sum|T| (Z = A + iB, packed); we allow twice that. [D]
   const double u = std::numeric_limits<double>::epsilon();

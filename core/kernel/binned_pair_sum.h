@@ -12,13 +12,15 @@
 //    k(x - y), point pair by point pair (for |x - y| the interpolant is poor there: the cone's
 //    second derivative is unbounded at 0).
 //  - Bound for the other (far) cell pairs: linear interpolation on [0, h] errs by at most
-//    h^2/8 max|f''| (REFERENCES "Kernel sums" K1), and the tensor-product interpolant in 4-D
-//    errs by at most the sum of the four one-axis terms [D], i.e. by
+//    h^2/8 max|f''| [P] (Süli & Mayers 2003, Thm 6.2 (mem)), and the tensor-product
+//    interpolant in 4-D errs by at most the sum of the four one-axis terms [D] (interpolate one
+//    axis at a time; each step is a convex combination, so earlier errors do not grow), i.e. by
 //        beta(c - c') = h^2/4 (sup |d^2k/dd1^2| + sup |d^2k/dd2^2|)
 //    with the sups over the difference box [(c - c' - 1) h, (c - c' + 1) h]^2. So
 //        |binned K_ab - K_ab| <= sum_{c, c'} Ma_c Mb_c' beta(c - c'),
 //    Ma, Mb the clouds' masses per cell, evaluated by the same FFT route, plus an allowance for
-//    the FFT's rounding (REFERENCES K2).
+//    the FFT's rounding (Higham 2002, Sec. 24.1 (mem)). Linear binning for kernel sums is the
+//    classical device of fast kernel density estimation (Wand 1994 (mem)); the bound is ours.
 //  The sums are the V-statistic sums (diagonal included).
 #pragma once
 

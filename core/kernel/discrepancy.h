@@ -34,9 +34,9 @@ struct DiscrepancySums {
 struct DiscrepancyOptions {
   enum class Method { Auto, Direct, Binned };
   Method method = Method::Auto;
-  // Auto bins above this many pair evaluations (n^2/2 + m^2/2 + n m): ~3*10^4 + 3*10^4 points,
-  // where the direct sums take ~0.3 s (Gaussian) and binning ~0.25 s (tests/bench/RESULTS-kernel.md).
-  double binAbovePairs = 1.8e9;
+  // Auto bins above this many pair evaluations (n^2/2 + m^2/2 + n m): ~2.2*10^4 + 2.2*10^4 points,
+  // where the direct sums cost about what binning does (tests/bench/RESULTS-kernel.md).
+  double binAbovePairs = 1e9;
   BinnedSumOptions binned;
 };
 
