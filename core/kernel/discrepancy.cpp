@@ -25,7 +25,12 @@ DiscrepancySums discrepancySums(const SupportPoints& a, const SupportPoints& b, 
   const double na = double(a.size()), nb = double(b.size());
   const double pairs = 0.5 * na * na + 0.5 * nb * nb + na * nb;
   if (options.method == Method::Binned || (options.method == Method::Auto && pairs > options.binAbovePairs)) {
-    if (auto bs = binnedPairSums(a, b, k, slice, options.binned)) {
+    auto bs = binnedPairSums(a, b, k, slice, options.binned);
+    if (bs && bs->complete && options.method == Method::Auto) {
+      const double scale = k.kind == PairKernel::Gaussian ? 1.0 : std::abs(bs->ab);
+      if (!(bs->boundAA + bs->boundBB + 2.0 * bs->boundAB <= options.binnedRelativeBound * scale)) bs.reset();
+    }
+    if (bs) {
       DiscrepancySums s;
       s.complete = bs->complete;
       s.sumSquaresA = a.weights.squaredNorm();

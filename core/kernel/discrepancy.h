@@ -37,6 +37,10 @@ struct DiscrepancyOptions {
   // Auto bins above this many pair evaluations (n^2/2 + m^2/2 + n m): ~2.2*10^4 + 2.2*10^4 points,
   // where the direct sums cost about what binning does (tests/bench/RESULTS-kernel.md).
   double binAbovePairs = 1e9;
+  // Auto keeps binned sums only when their bound, K_aa + K_bb + 2 K_ab's, is below this share
+  // of the sums' scale (Gaussian: 1, its largest value; distance: K_ab, the mean cross
+  // distance); otherwise (a bandwidth far below the grid spacing, far outliers) it sums directly.
+  double binnedRelativeBound = 1e-3;
   BinnedSumOptions binned;
 };
 

@@ -166,6 +166,19 @@ TEST(BinnedPairSumTest, DeclinesWhenTooManyPairsAreNear) {
   EXPECT_NE(f.method.find("direct"), std::string::npos);
 }
 
+// Auto keeps the binned sums only when their bound is within the requested share of the scale.
+TEST(BinnedPairSumTest, AutoSumsDirectlyWhenTheBoundIsTooLoose) {
+  const Case c = cases()[0];
+  DiscrepancyOptions o;
+  o.binAbovePairs = 0;  // try binning at this size
+  const PairKernelSpec k{PairKernel::Gaussian, 1 / (2 * 0.6 * 0.6)};
+  EXPECT_TRUE(discrepancySums(c.a, c.b, k, {}, o).binned);  // bound ~2e-5 (see above)
+  o.binnedRelativeBound = 1e-6;
+  const DiscrepancySums s = discrepancySums(c.a, c.b, k, {}, o);
+  EXPECT_FALSE(s.binned);
+  EXPECT_NE(s.method.find("direct"), std::string::npos);
+}
+
 TEST(BinnedPairSumTest, StopsWhenCancelled) {
   const Case c = cases()[0];
   std::atomic<bool> cancel{true};
