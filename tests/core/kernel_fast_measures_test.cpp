@@ -63,6 +63,23 @@ TEST(KernelFastMeasuresTest, MmdAboveThresholdIsBinnedAndWithinItsAccuracy) {
   EXPECT_LT(r.details["value_accuracy"].get<double>(), 1e-4);  // value ~0.56
 }
 
+// [D] energy is homogeneous of degree 1/2: at coordinates scaled by 2^-300 (evaluated at unit
+// scale, measures/unit_scale.h) the value and its accuracy scale by 2^-150, the energy and its
+// bound by 2^-300.
+TEST(KernelFastMeasuresTest, EnergyAccuracyScalesWithTheCoordinateUnit) {
+  const Cloud a = square("A", 24000, 1, 0, 0), b = square("B", 24000, 2, 0.5, 0.2);
+  const double unit = std::ldexp(1.0, -300);
+  const Cloud as("A", a.points * unit), bs("B", b.points * unit);
+  const Result r = run("energy", a, b), rs = run("energy", as, bs);
+  ASSERT_EQ(rs.status, Status::Ok) << rs.message;
+  ASSERT_TRUE(rs.details.contains("value_accuracy"));
+  EXPECT_DOUBLE_EQ(rs.details["value_accuracy"].get<double>(),
+                   r.details["value_accuracy"].get<double>() * std::ldexp(1.0, -150));
+  EXPECT_DOUBLE_EQ(rs.details["energy_error_bound"].get<double>(),
+                   r.details["energy_error_bound"].get<double>() * unit);
+  EXPECT_DOUBLE_EQ(rs.value, r.value * std::ldexp(1.0, -150));
+}
+
 // [D] sqrt(max(v, 0)) moves by at most sqrt(bound) when v moves by bound, and by about
 // bound / (2 sqrt(v)) away from 0.
 TEST(KernelFastMeasuresTest, SqrtAccuracyPropagatesHonestly) {
