@@ -79,8 +79,10 @@ TEST(MedianGridTest, EqualsStreamedSelectionOnVariedGeometries) {
   for (int i = 0; i < 3000; ++i)
     if (i % 2) farPair.row(i) = Eigen::RowVector2d(100.0, 50.0) + 0.01 * farPair.row(i);
     else farPair.row(i) *= 0.01;
+  Eigen::MatrixX2d offset = uniformSquare(3000, 10, 1e-3);  // far from the origin: differences cancel
+  offset.array() += 1e8;
   const std::vector<Eigen::MatrixX2d> sets = {uniformSquare(5000, 1), uniformSquare(5001, 2, 1e-3), clusters(4000, 3),
-                                              lattice(4500), line, farPair};
+                                              lattice(4500), line, farPair, offset};
   for (const auto& p : sets) {
     const MedianDistance ref = streamed(p);
     for (std::size_t limit : {std::size_t(1) << 22, std::size_t(1000), std::size_t(16)}) {
