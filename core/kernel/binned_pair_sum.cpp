@@ -201,44 +201,57 @@ std::optional<BinnedSums> binnedPairSums(const SupportPoints& a, const SupportPo
       table[std::size_t(iy) * std::size_t(g.px) + std::size_t(ix)] = kernelAt(k, dx * g.h, dy * g.h);
     }
   }
+  // Two transform buffers, used twice (the values, then the bound): large fresh allocations
+  // cost page faults that show on a virtual machine.
   std::vector<Complex> t(table.begin(), table.end());
-  std::vector<Complex> z(cellsP, 0.0), m(cellsP, 0.0), beta(cellsP, 0.0);
-  auto bin = [&](const Gridded& s, bool imag) {
+  std::vector<Complex> z(cellsP, 0.0);
+  auto bin = [&](const Gridded& s, bool imag, bool masses) {
     for (std::size_t i = 0; i < s.loc.size(); ++i) {
       const Loc& l = s.loc[i];
+      if (masses) {
+        z[g.wrap(l.cx, l.cy)] += imag ? Complex(0, s.w[i]) : Complex(s.w[i], 0);
+        continue;
+      }
       const double lam[4] = {(1 - l.u) * (1 - l.v), l.u * (1 - l.v), (1 - l.u) * l.v, l.u * l.v};
       for (int c = 0; c < 4; ++c) {
         Complex& node = z[g.wrap(l.cx + (c & 1), l.cy + (c >> 1))];
         node += imag ? Complex(0, s.w[i] * lam[c]) : Complex(s.w[i] * lam[c], 0);
       }
-      m[g.wrap(l.cx, l.cy)] += imag ? Complex(0, s.w[i]) : Complex(s.w[i], 0);
     }
   };
-  bin(ga, false);
-  bin(gb, true);
-  // Error weights of far cell offsets; near offsets are exact (0).
-  double betaSum = 0, tableSum = 0;
+  bin(ga, false, false);
+  bin(gb, true, false);
+  double tableSum = 0;
   for (double v : table) tableSum += std::abs(v);
+  // 2-norms of the packed inputs A + iB (the rounding of a packed transform scales with them).
+  const double nodeNorm = std::sqrt(sumSquares(z, false) + sumSquares(z, true));
+  const int threads = options.threads;
+  if (!fft2d(t, g.px, g.py, slice.sub(0.0, 0.2), threads) || !fft2d(z, g.px, g.py, slice.sub(0.2, 0.4), threads)) {
+    out.complete = false;
+    return out;
+  }
+  const Triple s = parseval(z, t, g);
+
+  // Error weights of far cell offsets (near offsets are exact: 0) against the cell masses.
+  std::fill(t.begin(), t.end(), Complex(0.0));
+  std::fill(z.begin(), z.end(), Complex(0.0));
+  double betaSum = 0;
   for (int dy = -(g.ny - 2); dy <= g.ny - 2; ++dy)
     for (int dx = -(g.nx - 2); dx <= g.nx - 2; ++dx) {
       if (std::abs(dx) <= kNear && std::abs(dy) <= kNear) continue;
       const Eigen::Vector2d boxLo((dx - 1) * g.h, (dy - 1) * g.h), boxHi((dx + 1) * g.h, (dy + 1) * g.h);
       const double v = 0.25 * g.h * g.h * curvatureBound(k, boxLo, boxHi);
-      beta[g.wrap(dx, dy)] = v;
+      t[g.wrap(dx, dy)] = v;
       betaSum += v;
     }
-  // 2-norms of the packed inputs A + iB (the rounding of a packed transform scales with them).
-  const double nodeNorm = std::sqrt(sumSquares(z, false) + sumSquares(z, true));
-  const double massNorm = std::sqrt(sumSquares(m, false) + sumSquares(m, true));
-
-  const int threads = options.threads;
-  const bool ok = fft2d(t, g.px, g.py, slice.sub(0.0, 0.2), threads) && fft2d(z, g.px, g.py, slice.sub(0.2, 0.4), threads) &&
-                  fft2d(beta, g.px, g.py, slice.sub(0.4, 0.6), threads) && fft2d(m, g.px, g.py, slice.sub(0.6, 0.8), threads);
-  if (!ok) {
+  bin(ga, false, true);
+  bin(gb, true, true);
+  const double massNorm = std::sqrt(sumSquares(z, false) + sumSquares(z, true));
+  if (!fft2d(t, g.px, g.py, slice.sub(0.4, 0.6), threads) || !fft2d(z, g.px, g.py, slice.sub(0.6, 0.8), threads)) {
     out.complete = false;
     return out;
   }
-  const Triple s = parseval(z, t, g), e = parseval(m, beta, g);
+  const Triple e = parseval(z, t, g);
 
   double nearAA = 0, nearBB = 0, nearAB = 0;
   const double na = nearPairCount(ga, ga), nb = nearPairCount(gb, gb), all = std::max(1.0, out.nearPairs);

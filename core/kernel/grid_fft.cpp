@@ -69,8 +69,10 @@ bool fft2d(std::vector<Complex>& data, int cols, int rows, const WorkSlice& slic
       colBlocks,
       [&](int b) {
         const int x0 = b * kLinesPerBlock, x1 = std::min(cols, x0 + kLinesPerBlock);
-        // Gather a strip of columns so that the strided reads stay in few cache lines.
-        std::vector<Complex> strip(std::size_t(rows) * std::size_t(x1 - x0));
+        // Gather a strip of columns so that the strided reads stay in few cache lines (one
+        // buffer per thread, not one allocation per block).
+        thread_local std::vector<Complex> strip;
+        strip.resize(std::size_t(rows) * std::size_t(x1 - x0));
         for (int y = 0; y < rows; ++y)
           for (int x = x0; x < x1; ++x)
             strip[std::size_t(x - x0) * std::size_t(rows) + std::size_t(y)] = data[std::size_t(y) * std::size_t(cols) + std::size_t(x)];
