@@ -278,7 +278,7 @@ std::optional<MedianDistance> medianByCellGrid(const Eigen::MatrixX2d& points, c
   const auto limit = Count(std::max<std::size_t>(options.candidateLimit, 16));  // two middle values may differ
 
   // Bracket: +-z standard deviations of the sample quantile around the median's share.
-  const auto sampleSize = std::size_t(std::clamp(double(m) / 1000.0, 65536.0, 4194304.0));
+  const auto sampleSize = std::size_t(std::clamp(double(m) / 1000.0, 65536.0, 2097152.0));
   std::vector<double> sample = samplePairs(points, sampleSize);
   const double sd = 0.5 / std::sqrt(double(sampleSize));
   double zLo = 5, zHi = 5;
