@@ -1,9 +1,54 @@
 #include "kernel/discrepancy.h"
 
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+
 namespace barrow {
 
+namespace {
+
+std::string describeBinned(const BinnedSums& s) {
+  char buf[256];
+  std::snprintf(buf, sizeof buf,
+                "binned: bilinear binning on a %d x %d grid (spacing %.3g) with FFT convolution, "
+                "%.0f near pairs exact; error bounded by the interpolation remainder",
+                s.cols, s.rows, s.spacing, s.nearPairs);
+  return buf;
+}
+
+}  // namespace
+
 DiscrepancySums discrepancySums(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,
-                                const WorkSlice& slice) {
+                                const WorkSlice& slice, const DiscrepancyOptions& options) {
+  using Method = DiscrepancyOptions::Method;
+  const double na = double(a.size()), nb = double(b.size());
+  const double pairs = 0.5 * na * na + 0.5 * nb * nb + na * nb;
+  if (options.method == Method::Binned || (options.method == Method::Auto && pairs > options.binAbovePairs)) {
+    auto bs = binnedPairSums(a, b, k, slice, options.binned);
+    if (bs && bs->complete && options.method == Method::Auto) {
+      const double scale = k.kind == PairKernel::Gaussian ? 1.0 : std::abs(bs->ab);
+      if (!(bs->boundAA + bs->boundBB + 2.0 * bs->boundAB <= options.binnedRelativeBound * scale)) bs.reset();
+    }
+    if (bs) {
+      DiscrepancySums s;
+      s.complete = bs->complete;
+      s.sumSquaresA = a.weights.squaredNorm();
+      s.sumSquaresB = b.weights.squaredNorm();
+      const double kSame = k.kind == PairKernel::Gaussian ? 1.0 : 0.0;  // k(x, x)
+      s.aaDiagonal = kSame * s.sumSquaresA;
+      s.bbDiagonal = kSame * s.sumSquaresB;
+      s.aaOffDiagonal = bs->aa - s.aaDiagonal;
+      s.bbOffDiagonal = bs->bb - s.bbDiagonal;
+      s.ab = bs->ab;
+      s.boundAA = bs->boundAA;
+      s.boundBB = bs->boundBB;
+      s.boundAB = bs->boundAB;
+      s.binned = true;
+      s.method = describeBinned(*bs);
+      return s;
+    }
+  }
   const PackedPoints pa(a.points, a.weights), pb(b.points, b.weights);
   // Split the progress bar by the number of pairs each sum visits.
   const double n = double(a.size()), m = double(b.size());
@@ -23,7 +68,13 @@ DiscrepancySums discrepancySums(const SupportPoints& a, const SupportPoints& b, 
   const double kSame = k.kind == PairKernel::Gaussian ? 1.0 : 0.0;  // k(x, x)
   s.aaDiagonal = kSame * s.sumSquaresA;
   s.bbDiagonal = kSame * s.sumSquaresB;
+  s.method = "direct: all pairs summed";
   return s;
+}
+
+double sqrtAccuracy(double v, double bound) {
+  const double value = std::sqrt(std::max(v, 0.0));
+  return std::max(std::sqrt(std::max(v + bound, 0.0)) - value, value - std::sqrt(std::max(v - bound, 0.0)));
 }
 
 Eigen::MatrixX2d discrepancyGradient(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,

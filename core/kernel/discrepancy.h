@@ -7,7 +7,9 @@
 #pragma once
 
 #include <Eigen/Core>
+#include <string>
 
+#include "kernel/binned_pair_sum.h"
 #include "kernel/pair_sum.h"
 #include "kernel/support_points.h"
 
@@ -21,12 +23,36 @@ struct DiscrepancySums {
   double bbDiagonal = 0.0;
   double sumSquaresA = 0.0;    // sum_i a_i^2 (for the U-statistic's renormalisation)
   double sumSquaresB = 0.0;
+  // Binned sums only (kernel/binned_pair_sum.h): bounds on the absolute error of
+  // aaDiagonal + aaOffDiagonal, of bbDiagonal + bbOffDiagonal and of ab. 0 for direct sums.
+  double boundAA = 0.0, boundBB = 0.0, boundAB = 0.0;
+  bool binned = false;
+  std::string method;          // for result details
   bool complete = true;
 };
 
+struct DiscrepancyOptions {
+  enum class Method { Auto, Direct, Binned };
+  Method method = Method::Auto;
+  // Auto bins above this many pair evaluations (n^2/2 + m^2/2 + n m): ~2.2*10^4 + 2.2*10^4 points,
+  // where the direct sums cost about what binning does (tests/bench/RESULTS-kernel.md).
+  double binAbovePairs = 1e9;
+  // Auto keeps binned sums only when their bound, K_aa + K_bb + 2 K_ab's, is below this share
+  // of the sums' scale (Gaussian: 1, its largest value; distance: K_ab, the mean cross
+  // distance); otherwise (a bandwidth far below the grid spacing, far outliers) it sums directly.
+  double binnedRelativeBound = 1e-3;
+  BinnedSumOptions binned;
+};
+
 /// Pre: both supports non-empty with weights summing to 1.
+/// Direct sums are exact to rounding; binned ones carry the bounds above. Binned falls back to
+/// direct when binning declines (many coincident points).
 DiscrepancySums discrepancySums(const SupportPoints& a, const SupportPoints& b, const PairKernelSpec& k,
-                                const WorkSlice& slice);
+                                const WorkSlice& slice, const DiscrepancyOptions& options = {});
+
+/// Absolute accuracy of sqrt(max(v, 0)) when v is known within +-bound: the larger move of the
+/// square root over [v - bound, v + bound]; sqrt(bound) at v = 0.
+double sqrtAccuracy(double v, double bound);
 
 /// For each support point x_i of a:
 ///   2 a_i [ selfScale * sum_k a_k grad k(x_i, x_k) - sum_j b_j grad k(x_i, y_j) ],

@@ -1,4 +1,5 @@
 #include "kernel/median_distance.h"
+#include "kernel/median_grid.h"
 
 #include <algorithm>
 #include <bit>
@@ -261,6 +262,8 @@ MedianDistance direct(const Eigen::MatrixX2d& p) {
 MedianDistance medianPairwiseDistance(const Eigen::MatrixX2d& points, const WorkSlice& slice,
                                       const MedianDistanceOptions& options) {
   if (points.rows() <= options.directLimit) return direct(points);
+  if (options.cellGrid)
+    if (auto g = medianByCellGrid(points, slice, options)) return *g;
   const PairKeys keys(points, options.threads);
   const auto m = std::uint64_t(keys.pairCount());
   const std::uint64_t lo = (m - 1) / 2, hi = m / 2;

@@ -6,7 +6,10 @@
 //
 // Exact at every size, with O(N) memory beyond a bounded candidate buffer:
 //  - up to `directLimit` points, all N(N-1)/2 squared distances are stored and selected;
-//  - above, streamed selection: the distances are recomputed block by block on all cores in
+//  - above, the cell-grid rank search (kernel/median_grid.h), which counts most pairs
+//    wholesale and computes only those near the median; should it give up, or with
+//    cellGrid = false:
+//  - streamed selection: the distances are recomputed block by block on all cores in
 //    each pass over the pairs, never stored. First try: a deterministic sample of up to 2^23
 //    pairs brackets the median rank (+-5 sd of the sample quantile); one pass counts the pairs below
 //    the bracket and collects those inside, which then hold the median (verified by the
@@ -27,6 +30,7 @@ struct MedianDistanceOptions {
   Eigen::Index directLimit = 2048;            // points up to which all pairs are stored
   std::size_t candidateLimit = std::size_t(1) << 22;  // values collected in the final pass
   bool sampleBracket = true;                  // try the one-pass sampled bracket first
+  bool cellGrid = true;                       // above directLimit: kernel/median_grid.h first
   int threads = 0;                            // 0: all cores
 };
 

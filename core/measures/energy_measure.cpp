@@ -11,8 +11,13 @@ namespace barrow {
 Result EnergyMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   // All coordinates tiny or huge: evaluate at unit scale (measures/unit_scale.h); the energy
   // distance is homogeneous of degree ½, its square ("energy", a mean of distances) of degree 1.
-  if (auto r = evaluateAtUnitScale(*this, a, b, ctx, {{"energy", 1}}))
+  if (auto r = evaluateAtUnitScale(*this, a, b, ctx, {{"energy", 1}, {"energy_error_bound", 1}})) {
+    // The value's accuracy has the value's degree, 1/2, which the list above cannot express.
+    if (r->details.contains("value_accuracy") && r->details.contains("coordinate_unit"))
+      r->details["value_accuracy"] = r->details["value_accuracy"].get<double>() *
+                                     std::sqrt(r->details["coordinate_unit"].get<double>());
     return *r;
+  }
   const SupportPoints sa = supportOf(a), sb = supportOf(b);
   const DiscrepancySums s = discrepancySums(sa, sb, {PairKernel::Distance, 0.0}, WorkSlice{ctx.control});
   if (!s.complete) return Result::cancelled(id() + ": cancelled");
@@ -22,6 +27,12 @@ Result EnergyMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext
   r.details["statistic"] = "V (all pairs, diagonal included)";
   r.details["points_used"] = {{"a", sa.size()}, {"b", sb.size()}};
   r.details["gradient_at_coincident_points"] = "0";
+  r.details["kernel_sums"] = s.method;
+  if (s.binned) {  // kernel/binned_pair_sum.h: the bound on each sum, through E and the sqrt
+    const double bound = s.boundAA + s.boundBB + 2.0 * s.boundAB;
+    r.details["energy_error_bound"] = bound;
+    r.details["value_accuracy"] = sqrtAccuracy(e, bound);
+  }
   return finiteOrInvalid(std::move(r), id());
 }
 

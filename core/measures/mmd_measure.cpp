@@ -124,6 +124,14 @@ Result MmdMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& c
                                     : "biased (V-statistic, all pairs)";
   r.details["mmd2"] = mmd2;
   r.details["points_used"] = {{"a", sa.size()}, {"b", sb.size()}};
+  r.details["kernel_sums"] = s.method;
+  if (s.binned) {  // kernel/binned_pair_sum.h: the bound on each sum, through MMD^2 and the sqrt
+    const double bound = (unbiased ? s.boundAA / (1.0 - s.sumSquaresA) + s.boundBB / (1.0 - s.sumSquaresB)
+                                   : s.boundAA + s.boundBB) +
+                         2.0 * s.boundAB;
+    r.details["mmd2_error_bound"] = bound;
+    r.details["value_accuracy"] = sqrtAccuracy(mmd2, bound);
+  }
   if (mmd2 < 0) {
     r.details["clamped"] = true;
     r.message = "MMD^2 estimate is negative (" + std::to_string(mmd2) + "); reported value clamped to 0";

@@ -176,6 +176,7 @@ TEST(MedianDistanceTest, MatchesNumpyMedianOfPdist) {
     for (std::size_t limit : {std::size_t(1), std::size_t(50), std::size_t(1000), std::size_t(1) << 30}) {
       MedianDistanceOptions forced;
       forced.directLimit = 0;
+      forced.cellGrid = false;  // the streamed selection; the grid search: median_grid_test.cpp
       forced.candidateLimit = limit;
       const MedianDistance streamed = medianPairwiseDistance(p, {}, forced);
       EXPECT_TRUE(streamed.complete);
