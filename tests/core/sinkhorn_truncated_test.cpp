@@ -185,8 +185,9 @@ TEST(TruncatedSinkhornTest, WarmStartAndThreadsChangeOnlyTheSpeed) {
   const Pair q = randomPair(2000, 2000, 15);
   SinkhornOptions o;
   o.epsilon = 2e-4;
-  const RunControl one{.threads = 1};
-  const RunControl two{.threads = 2};
+  RunControl one, two;
+  one.threads = 1;
+  two.threads = 2;
   const SinkhornResult cold1 = solveSinkhorn(q.x, q.a, q.y, q.b, o, &one);
   const SinkhornResult cold2 = solveSinkhorn(q.x, q.a, q.y, q.b, o, &two);
   ASSERT_EQ(cold1.status, SinkhornStatus::Converged);
