@@ -15,6 +15,7 @@ NetworkSimplex::NetworkSimplex(std::vector<Mass> supply, std::vector<Mass> deman
   const std::size_t nodes = std::size_t(root_) + 1;
   for (auto* a : {&parent_, &pred_, &thread_, &revThread_, &last_, &size_}) a->assign(nodes, kNone);
   up_.assign(nodes, 0);
+  predFlow_.assign(nodes, 0);
   pot_.assign(nodes, 0.0);
 }
 
@@ -74,6 +75,7 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
     seen[std::size_t(s)] = 1;
     parent_[std::size_t(s)] = root_;
     pred_[std::size_t(s)] = kArtificial;
+    predFlow_[std::size_t(s)] = 0;
     up_[std::size_t(s)] = 1;
     stack.push_back(s);
     while (!stack.empty()) {
@@ -88,6 +90,7 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
         seen[std::size_t(w)] = 1;
         parent_[std::size_t(w)] = v;
         pred_[std::size_t(w)] = e;
+        predFlow_[std::size_t(w)] = flow_[std::size_t(e)];
         up_[std::size_t(w)] = tail_[std::size_t(e)] == w;
         if (flow_[std::size_t(e)] == 0 && !up_[std::size_t(w)])
           return "basis is not strongly feasible (a zero-flow arc points away from the root)";
@@ -176,13 +179,13 @@ void NetworkSimplex::pivot(int e) {
   while (x != y) {
     if (size_[std::size_t(x)] < size_[std::size_t(y)]) {
       if (up_[std::size_t(x)]) {
-        const Mass f = predFlow(x);
+        const Mass f = predFlow_[std::size_t(x)];
         if (f < bestK) bestK = f, leaveK = x;
       }
       x = parent_[std::size_t(x)];
     } else {
       if (!up_[std::size_t(y)]) {
-        const Mass f = predFlow(y);
+        const Mass f = predFlow_[std::size_t(y)];
         if (f <= bestL) bestL = f, leaveL = y;
       }
       y = parent_[std::size_t(y)];
@@ -195,15 +198,17 @@ void NetworkSimplex::pivot(int e) {
 
   if (delta > 0) {
     for (int w = k; w != apex; w = parent_[std::size_t(w)])
-      flow_[std::size_t(pred_[std::size_t(w)])] += up_[std::size_t(w)] ? -delta : delta;
+      predFlow_[std::size_t(w)] += up_[std::size_t(w)] ? -delta : delta;
     for (int w = l; w != apex; w = parent_[std::size_t(w)])
-      flow_[std::size_t(pred_[std::size_t(w)])] += up_[std::size_t(w)] ? delta : -delta;
+      predFlow_[std::size_t(w)] += up_[std::size_t(w)] ? delta : -delta;
   } else {
     ++degenerate_;
   }
-  flow_[se] = delta;
   basic_[se] = 1;
-  if (pred_[std::size_t(q)] >= 0) basic_[std::size_t(pred_[std::size_t(q)])] = 0;
+  if (pred_[std::size_t(q)] >= 0) {
+    basic_[std::size_t(pred_[std::size_t(q)])] = 0;
+    flow_[std::size_t(pred_[std::size_t(q)])] = 0;  // it leaves with zero flow
+  }
 
   // The subtree S under q is cut out and hung again from the entering arc, re-rooted at s
   // (the end of the entering arc inside S). Path s = w0, w1, ..., wr = q; save the old
@@ -257,10 +262,12 @@ void NetworkSimplex::pivot(int e) {
     const auto below = std::size_t(path_[i - 1]);
     parent_[child] = path_[i - 1];
     pred_[child] = pred_[below];
+    predFlow_[child] = predFlow_[below];
     up_[child] = !up_[below];
   }
   parent_[std::size_t(s)] = t;
   pred_[std::size_t(s)] = e;
+  predFlow_[std::size_t(s)] = delta;
   up_[std::size_t(s)] = s == k;
 
   // 4. Splice S in right after t; ancestors whose subtree ended at t now end with S.
@@ -280,8 +287,20 @@ void NetworkSimplex::pivot(int e) {
   else shiftPotentials(afterT, t, -shift);
 }
 
+void NetworkSimplex::syncFlows() {
+  for (int v = 0; v < root_; ++v)
+    if (pred_[std::size_t(v)] >= 0) flow_[std::size_t(pred_[std::size_t(v)])] = predFlow_[std::size_t(v)];
+}
+
 NetworkSimplex::RunStatus NetworkSimplex::run(double tolerance, long long maxPivots,
                                               const RunControl* control) {
+  const RunStatus status = pivotUntilDone(tolerance, maxPivots, control);
+  syncFlows();
+  return status;
+}
+
+NetworkSimplex::RunStatus NetworkSimplex::pivotUntilDone(double tolerance, long long maxPivots,
+                                                         const RunControl* control) {
   bool refreshed = false;
   while (true) {
     if ((pivots_ & 4095) == 0 && control && control->shouldStop(progress())) return RunStatus::Cancelled;

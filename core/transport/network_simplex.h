@@ -89,8 +89,9 @@ class NetworkSimplex {
   static constexpr int kArtificial = -2;  // pred of a node hanging from the root
 
   int findEntering(double tolerance);
+  RunStatus pivotUntilDone(double tolerance, long long maxPivots, const RunControl* control);
   void pivot(int e);
-  Mass predFlow(int v) const { return pred_[std::size_t(v)] >= 0 ? flow_[std::size_t(pred_[std::size_t(v)])] : 0; }
+  void syncFlows();
   void chain(int from, int to) {  // thread_[from] = to
     thread_[std::size_t(from)] = to;
     revThread_[std::size_t(to)] = from;
@@ -100,7 +101,7 @@ class NetworkSimplex {
   int n_ = 0, m_ = 0, root_ = 0;
   std::vector<Mass> mass_;  // supply (> 0) of sources, demand (> 0) of sinks
 
-  // Arcs.
+  // Arcs. flow_ holds tree arcs' flows as of the last setBasis() or run().
   std::vector<int> tail_, head_;  // node ids: sources 0..n-1, sinks n..n+m-1
   std::vector<double> cost_;
   std::vector<Mass> flow_;
@@ -113,6 +114,9 @@ class NetworkSimplex {
   // contiguous subtrees make re-hanging a subtree a few splices plus one linear sweep.
   std::vector<int> parent_, pred_, thread_, revThread_, last_, size_;
   std::vector<std::uint8_t> up_;  // pred arc points from the node to its parent
+  std::vector<Mass> predFlow_;    // flow on the pred arc (0 for artificial arcs): kept with
+                                  // the node, as the cycle walk reads it next to parent_ and
+                                  // size_; flow_ is brought up to date when run() returns
   std::vector<double> pot_;       // reduced cost of arc (p → q) is c − pot_p + pot_q
   std::vector<int> path_;         // scratch: the path re-rooted in a pivot
   std::vector<int> pathPrev_, pathLast_, pathAfter_, pathSize_;
