@@ -1,6 +1,7 @@
 #include "transport/exact_multiscale.h"
 
 #include <algorithm>
+#include <functional>
 #include <numeric>
 
 #include "transport/exact_candidates.h"
@@ -71,6 +72,17 @@ void members(const std::vector<int>& group, int groups, std::vector<int>* start,
   for (std::size_t i = 0; i < group.size(); ++i) (*list)[std::size_t(fill[std::size_t(group[i])]++)] = int(i);
 }
 
+constexpr int kChunk = 128;  // points per chunk handed to a thread
+
+// body(begin, end) over [0, n) in chunks of kChunk (begins at multiples of it).
+void overChunks(int n, kernel::RowWorkers* team, const std::function<void(int, int)>& body) {
+  if (team) {
+    team->run(n, kChunk, body);
+    return;
+  }
+  for (int b = 0; b < n; b += kChunk) body(b, std::min(n, b + kChunk));
+}
+
 }  // namespace
 
 CoarseProblem coarsen(const ExactProblem& fine, int groupSize) {
@@ -90,7 +102,7 @@ CoarseProblem coarsen(const ExactProblem& fine, int groupSize) {
 
 void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
                  const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU, int guided,
-                 std::vector<std::pair<int, int>>* arcs, std::vector<FlowArc>* basis) {
+                 std::vector<std::pair<int, int>>* arcs, std::vector<FlowArc>* basis, kernel::RowWorkers* team) {
   std::vector<int> startA, listA, startB, listB;
   members(coarse.groupA, coarse.problem.n(), &startA, &listA);
   members(coarse.groupB, coarse.problem.m(), &startB, &listB);
@@ -101,22 +113,31 @@ void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
 
   // Fine potentials from the coarse ones: v = U^c at the fine sinks, u = v^c at the fine
   // sources; the lowest scores of each source are its guided arcs.
+  // Each point's search is independent of the others', so chunks of points may run on any
+  // thread; the guided arcs are sorted below, so their order of arrival does not matter.
   SiteTree coarseSources(coarse.problem.ax, coarse.problem.ay, fine.cost);
   coarseSources.setPotentials(coarseU);
   Eigen::ArrayXd v(fine.m()), u(fine.n());
-  for (int j = 0; j < fine.m(); ++j) v(j) = coarseSources.minScore(fine.bx(j), fine.by(j));
+  overChunks(fine.m(), team, [&](int begin, int end) {
+    for (int j = begin; j < end; ++j) v(j) = coarseSources.minScore(fine.bx(j), fine.by(j));
+  });
   SiteTree sinks(fine.bx, fine.by, fine.cost);
   sinks.setPotentials(v);
-  std::vector<std::pair<double, int>> lowest;
-  for (int i = 0; i < fine.n(); ++i) {
-    if (guided > 0) {
-      sinks.below(fine.ax(i), fine.ay(i), INFINITY, guided, &lowest);
-      u(i) = lowest.front().first;
-      for (const auto& [score, j] : lowest) arcs->emplace_back(i, j);
-    } else {
-      u(i) = sinks.minScore(fine.ax(i), fine.ay(i));
+  std::vector<std::vector<std::pair<int, int>>> found(std::size_t((fine.n() + kChunk - 1) / kChunk));
+  overChunks(fine.n(), team, [&](int begin, int end) {
+    std::vector<std::pair<double, int>> lowest;
+    auto& mine = found[std::size_t(begin / kChunk)];
+    for (int i = begin; i < end; ++i) {
+      if (guided > 0) {
+        sinks.below(fine.ax(i), fine.ay(i), INFINITY, guided, &lowest);
+        u(i) = lowest.front().first;
+        for (const auto& [score, j] : lowest) mine.emplace_back(i, j);
+      } else {
+        u(i) = sinks.minScore(fine.ax(i), fine.ay(i));
+      }
     }
-  }
+  });
+  for (const auto& part : found) arcs->insert(arcs->end(), part.begin(), part.end());
   sortUnique(*arcs);
   std::vector<double> reduced(arcs->size());
   for (std::size_t k = 0; k < arcs->size(); ++k) {

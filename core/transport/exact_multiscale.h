@@ -13,6 +13,7 @@
 #include <utility>
 #include <vector>
 
+#include "base/row_workers.h"
 #include "transport/exact_initial_basis.h"
 #include "transport/exact_problem.h"
 
@@ -35,9 +36,11 @@ CoarseProblem coarsen(const ExactProblem& fine, int groupSize);
 ///   say are nearly tight; for W1 these reach across gaps that nearest neighbours miss).
 /// The basis ships greedily along these arcs in order of reduced cost c_ij − u_i − v_j
 /// (u = v^c), so it follows the coarse optimum; mass left over is matched by the north-west
-/// rule.
+/// rule. With a thread team the searches per point are split across its threads; the
+/// result is the same as without one.
 void refineStart(const ExactProblem& fine, const CoarseProblem& coarse,
                  const std::vector<std::pair<int, int>>& coarsePlan, const Eigen::ArrayXd& coarseU, int guided,
-                 std::vector<std::pair<int, int>>* arcs, std::vector<FlowArc>* basis);
+                 std::vector<std::pair<int, int>>* arcs, std::vector<FlowArc>* basis,
+                 kernel::RowWorkers* team = nullptr);
 
 }  // namespace barrow

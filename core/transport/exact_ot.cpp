@@ -57,7 +57,7 @@ int arcId(const std::vector<std::pair<int, int>>& sorted, int i, int j) {
 LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int, int>>& pairs,
                         const std::vector<FlowArc>& start, const std::vector<int>& roots,
                         const ExactOtOptions& o, const RunControl* control, long long budget,
-                        std::string* error) {
+                        std::string* error, std::shared_ptr<kernel::RowWorkers> team = nullptr) {
   LevelOutcome out;
   const double tol = o.tolerance * pr.scale();
   NetworkSimplex ns(pr.massA, pr.massB);
@@ -70,7 +70,8 @@ LevelOutcome solveLevel(const ExactProblem& pr, const std::vector<std::pair<int,
   std::vector<std::pair<int, int>> violated;
   out.sinks = std::make_shared<SiteTree>(pr.bx, pr.by, pr.cost);
   // Pricing is worth more than one core once there are a few chunks of sources per thread.
-  if (pr.n() >= kMinSourcesForTeam) out.team = std::make_shared<kernel::RowWorkers>(threadBudget(control));
+  if (pr.n() >= kMinSourcesForTeam)
+    out.team = team ? std::move(team) : std::make_shared<kernel::RowWorkers>(threadBudget(control));
   out.u.resize(pr.n());
   out.v.resize(pr.m());
   out.minima.window = kTieWindow * tol;
@@ -115,6 +116,7 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
   std::vector<FlowArc> start;
   long long spent = 0, degenerate = 0;
   int rounds = 0;
+  std::shared_ptr<kernel::RowWorkers> team;  // made once here when the start can use it too
   const bool coarseFirst = o.multiscale && std::min(pr.n(), pr.m()) > o.coarsestSize;
   const RunControl coarseControl = control ? control->sub(0.0, 0.25) : RunControl{};
   const RunControl fineControl = control ? control->sub(coarseFirst ? 0.25 : 0.0, 1.0) : RunControl{};
@@ -124,7 +126,8 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
     if (!error->empty() || c.status == ExactOtStatus::Cancelled) return c;
     std::vector<std::pair<int, int>> plan;
     for (const auto& f : c.basis) plan.emplace_back(f.i, f.j);
-    refineStart(pr, coarse, plan, c.u, o.guidedArcs, &pairs, &start);
+    if (pr.n() >= kMinSourcesForTeam) team = std::make_shared<kernel::RowWorkers>(threadBudget(control));
+    refineStart(pr, coarse, plan, c.u, o.guidedArcs, &pairs, &start, team.get());
     spent = c.pivots;
     degenerate = c.degenerate;
     rounds = c.rounds;
@@ -134,7 +137,7 @@ LevelOutcome solveCold(const ExactProblem& pr, const ExactOtOptions& o, const Ru
   for (const auto& f : start) pairs.emplace_back(f.i, f.j);
   sortUnique(pairs);
   LevelOutcome out = solveLevel(pr, pairs, start, {}, o, control ? &fineControl : nullptr,
-                                std::max(0LL, budget - spent), error);
+                                std::max(0LL, budget - spent), error, std::move(team));
   out.pivots += spent;
   out.degenerate += degenerate;
   out.rounds += rounds;

@@ -257,6 +257,33 @@ TEST(NetworkSimplexTest, WarmStartReachesTheSameOptimum) {
   }
 }
 
+// [D] The thread team only splits independent per-point searches (the coarse-to-fine start
+// and pricing) and returns their results in point order, so one and two threads must make
+// the same pivots and give the same plan and potentials, bit for bit. 3000 points: three
+// coarser levels, and teams on the levels with 512 points or more.
+TEST(NetworkSimplexTest, OneAndTwoThreadsGiveTheSameSolve) {
+  const Cloud a = randomCloud(3000, 21, true), b = randomCloud(2900, 22, true, 1.3);
+  for (double p : {1.0, 2.0}) {
+    RunControl one, two;
+    one.threads = 1;
+    two.threads = 2;
+    const auto r1 = solveExactOt(a, b, withP(p), &one);
+    const auto r2 = solveExactOt(a, b, withP(p), &two);
+    expectCertified(a, b, p, r1);
+    EXPECT_EQ(r1.pivots, r2.pivots);
+    EXPECT_EQ(r1.rounds, r2.rounds);
+    EXPECT_EQ(r1.cost, r2.cost);
+    EXPECT_TRUE(r1.u == r2.u);
+    EXPECT_TRUE(r1.v == r2.v);
+    ASSERT_EQ(r1.plan.size(), r2.plan.size());
+    for (std::size_t k = 0; k < r1.plan.size(); ++k) {
+      EXPECT_EQ(r1.plan[k].i, r2.plan[k].i);
+      EXPECT_EQ(r1.plan[k].j, r2.plan[k].j);
+      EXPECT_EQ(r1.plan[k].mass, r2.plan[k].mass);
+    }
+  }
+}
+
 // The simplex on its own: bases that are not spanning forests meeting the masses, or not
 // strongly feasible, are refused with a reason.
 TEST(NetworkSimplexTest, SetBasisRejectsWhatIsNotAStronglyFeasibleForest) {
