@@ -101,8 +101,7 @@ WassersteinBracket bracketWasserstein(const Cloud& a, const Cloud& b, int p, Eig
   out.quantiseSeconds = since(t0);
 
   const auto t1 = std::chrono::steady_clock::now();
-  ExactOtOptions o;
-  o.p = p;
+  const ExactOtOptions o = exactOtOptionsFor(p);
   out.quantised = solveExactOt(out.representativesOfA, out.representativesOfB, o, &solve, warm);
   out.solveSeconds = since(t1);
   if (out.quantised.status == ExactOtStatus::Cancelled) out.cancelled = true;

@@ -76,9 +76,7 @@ Result WassersteinMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalCo
     return *r;
   if (std::max(positiveCount(a), positiveCount(b)) > ctx.params.integer(id() + ".exact_limit"))
     return bracket(a, b, ctx);
-  ExactOtOptions o;
-  o.p = p_;
-  ExactOtResult s = solveExactOt(a, b, o, ctx.control, ctx.warm);
+  ExactOtResult s = solveExactOt(a, b, exactOtOptionsFor(p_), ctx.control, ctx.warm);
   Result r;
   switch (s.status) {
     case ExactOtStatus::InvalidInput: return Result::invalid(s.message);

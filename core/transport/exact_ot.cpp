@@ -199,6 +199,16 @@ void fillPlan(const Cloud& a, const Cloud& b, const ExactProblem& pr, const Leve
 
 }  // namespace
 
+ExactOtOptions exactOtOptionsFor(double p) {
+  ExactOtOptions o;
+  o.p = p;
+  if (p == 1.0) {
+    o.guidedArcs = 24;
+    o.arcsPerRow = 16;
+  }
+  return o;
+}
+
 ExactOtResult solveExactOt(const Cloud& a, const Cloud& b, const ExactOtOptions& options,
                            const RunControl* control, std::shared_ptr<WarmState>* warm) {
   const auto startTime = std::chrono::steady_clock::now();

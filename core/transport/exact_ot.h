@@ -82,6 +82,15 @@ struct ExactOtResult {
   std::optional<bool> planUnique; // false: some arc off the basis has zero reduced cost
 };
 
+/// The options the measures use for cost exponent p: the defaults above, except that for
+/// p = 1 the coarse-to-fine start guides 24 arcs per point and pricing adds up to 16 per
+/// row. Under |x − y| the potentials tie along whole rays, so the few nearest neighbours and
+/// 8 guided arcs miss much of the optimal support; the wider candidate sets took a quarter
+/// fewer instructions on 10^4 shifted clouds and 4000-point clusters (3 % fewer on uniform
+/// clouds with random weights, 16 % more on uniform weights at 4000; tests/bench/
+/// RESULTS-exact-ot.md). Under |x − y|² they changed nothing worth the arcs.
+ExactOtOptions exactOtOptionsFor(double p);
+
 /// Pre: none (bad clouds or options give InvalidInput). `warm` may be null; when it holds
 /// an ExactWarmState for clouds of the same sizes and weights the solve starts from it, and
 /// after an optimal solve it is replaced by this solve's state.

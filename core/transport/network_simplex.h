@@ -112,11 +112,13 @@ class NetworkSimplex {
   int nextArc_ = 0;
 
   // Spanning tree over n+m+1 nodes (the last is the root), stored as a preorder thread
-  // (circular, through the root): the subtree of v is the thread segment from v to last_[v],
-  // of size_[v] nodes. Subtree sizes find the apex of a cycle (the ancestor is the larger);
+  // (circular, through the root): the subtree of v is the thread segment from v to
+  // node_[v].last, of node_[v].size nodes. Subtree sizes find the apex of a cycle (the ancestor is the larger);
   // contiguous subtrees make re-hanging a subtree a few splices plus one linear sweep.
   // What a pivot reads while walking up the tree sits together, one cache line per node
-  // visited (measured: at 10^5 nodes the walks are memory-bound).
+  // visited instead of one per field (perf at 10^5 nodes: pivots spend most of their time
+  // in these walks; cachegrind at 10^4: a third fewer L1 data misses, tests/bench/
+  // RESULTS-exact-ot.md).
   struct Node {
     Mass predFlow = 0;     // flow on the pred arc (0 for artificial arcs); flow_ is brought
                            // up to date from it when run() returns

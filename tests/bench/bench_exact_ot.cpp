@@ -60,8 +60,7 @@ double peakRssMiB() {
 
 void runBarrow(benchmark::State& state, Shape shape, bool randomWeights, double p, int n) {
   const Cloud a = makeCloud(shape, n, randomWeights, true, 1), b = makeCloud(shape, n, randomWeights, false, 2);
-  ExactOtOptions o;
-  o.p = p;
+  ExactOtOptions o = exactOtOptionsFor(p);  // what the measures use
   ExactOtResult r;
   for (auto _ : state) {
     r = solveExactOt(a, b, o);
@@ -151,8 +150,7 @@ void runMoved(benchmark::State& state, Move move, double p, int n, bool warm) {
   Cloud b = makeCloud(Shape::Uniform, n, true, false, 2);
   if (move == Move::ShiftApart) b.points.col(0).array() += 1.5;
   const Cloud a2 = moved(a, move, jointDiameter(a, b));
-  ExactOtOptions o;
-  o.p = p;
+  ExactOtOptions o = exactOtOptionsFor(p);  // what the measures use
   std::shared_ptr<WarmState> before;
   solveExactOt(a, b, o, nullptr, &before);
   const auto& state0 = dynamic_cast<const ExactWarmState&>(*before);
@@ -174,8 +172,7 @@ void runMoved(benchmark::State& state, Move move, double p, int n, bool warm) {
 // random weights (LEMON above is the plain network simplex on all n·m arcs).
 void runVariant(benchmark::State& state, std::string variant, double p, int n) {
   const Cloud a = makeCloud(Shape::Uniform, n, true, true, 1), b = makeCloud(Shape::Uniform, n, true, false, 2);
-  ExactOtOptions o;
-  o.p = p;
+  ExactOtOptions o = exactOtOptionsFor(p);  // what the measures use
   if (variant == "single-level-greedy") o.multiscale = false;
   if (variant == "single-level-northwest") o.multiscale = false, o.initial = InitialBasis::NorthWest;
   if (variant == "neighbours-2") o.neighbours = 2;

@@ -284,6 +284,22 @@ TEST(NetworkSimplexTest, OneAndTwoThreadsGiveTheSameSolve) {
   }
 }
 
+// [P] LP duality as in expectCertified: the wider candidate sets the measures use for W1
+// (exactOtOptionsFor) change the path, not the optimum; both solves are certified and their
+// costs agree to rounding. Clusters of different sizes so that mass must cross between them.
+TEST(NetworkSimplexTest, MeasureOptionsReachTheSameCertifiedOptimum) {
+  Cloud a = randomCloud(2500, 31, true), b = randomCloud(2400, 32, false, 0.6);
+  a.points.topRows(800).array() *= 0.3;
+  b.points.col(0).array() += 0.5;
+  for (double p : {1.0, 2.0}) {
+    const auto plain = solveExactOt(a, b, withP(p));
+    const auto tuned = solveExactOt(a, b, exactOtOptionsFor(p));
+    expectCertified(a, b, p, plain);
+    expectCertified(a, b, p, tuned);
+    EXPECT_NEAR(tuned.cost, plain.cost, 1e-12 * plain.cost);
+  }
+}
+
 // The simplex on its own: bases that are not spanning forests meeting the masses, or not
 // strongly feasible, are refused with a reason.
 TEST(NetworkSimplexTest, SetBasisRejectsWhatIsNotAStronglyFeasibleForest) {
