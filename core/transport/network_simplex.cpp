@@ -13,16 +13,19 @@ NetworkSimplex::NetworkSimplex(std::vector<Mass> supply, std::vector<Mass> deman
   mass_ = std::move(supply);
   mass_.insert(mass_.end(), demand.begin(), demand.end());
   const std::size_t nodes = std::size_t(root_) + 1;
-  for (auto* a : {&thread_, &revThread_}) a->assign(nodes, kNone);
-  node_.assign(nodes, Node{});
+  for (auto* a : {&parent_, &pred_, &thread_, &revThread_, &last_, &size_}) a->assign(nodes, kNone);
+  up_.assign(nodes, 0);
+  predFlow_.assign(nodes, 0);
   pot_.assign(nodes, 0.0);
 }
 
 int NetworkSimplex::addArc(int i, int j, double cost) {
-  arc_.push_back({i, n_ + j, cost});
+  tail_.push_back(i);
+  head_.push_back(n_ + j);
+  cost_.push_back(cost);
   flow_.push_back(0);
   basic_.push_back(0);
-  return int(arc_.size()) - 1;
+  return int(cost_.size()) - 1;
 }
 
 std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const std::vector<int>& roots) {
@@ -41,10 +44,10 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
     if (basic_[e]) return "basis names an arc twice";
     basic_[e] = 1;
     flow_[e] = b.flow;
-    balance[std::size_t(arc_[e].tail)] -= b.flow;
-    balance[std::size_t(arc_[e].head)] -= b.flow;
-    ++start[std::size_t(arc_[e].tail) + 1];
-    ++start[std::size_t(arc_[e].head) + 1];
+    balance[std::size_t(tail_[e])] -= b.flow;
+    balance[std::size_t(head_[e])] -= b.flow;
+    ++start[std::size_t(tail_[e]) + 1];
+    ++start[std::size_t(head_[e]) + 1];
   }
   for (int v = 0; v < nodes; ++v)
     if (balance[std::size_t(v)] != 0) return "basis flows do not meet the masses exactly";
@@ -52,8 +55,8 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
   std::vector<int> adj(std::size_t(start.back())), fill(start.begin(), start.end() - 1);
   for (const auto& b : arcs) {
     const auto e = std::size_t(b.arc);
-    adj[std::size_t(fill[std::size_t(arc_[e].tail)]++)] = b.arc;
-    adj[std::size_t(fill[std::size_t(arc_[e].head)]++)] = b.arc;
+    adj[std::size_t(fill[std::size_t(tail_[e])]++)] = b.arc;
+    adj[std::size_t(fill[std::size_t(head_[e])]++)] = b.arc;
   }
 
   // Hang each component from the root; a depth-first walk gives parents and the preorder.
@@ -61,8 +64,8 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
   std::vector<int> order{root_}, stack;
   order.reserve(std::size_t(nodes) + 1);
   seen[std::size_t(root_)] = 1;
-  node_[std::size_t(root_)].parent = kNone;
-  node_[std::size_t(root_)].pred = kNone;
+  parent_[std::size_t(root_)] = kNone;
+  pred_[std::size_t(root_)] = kNone;
   std::vector<int> starts(roots);
   starts.resize(roots.size() + std::size_t(nodes));
   std::iota(starts.begin() + std::ptrdiff_t(roots.size()), starts.end(), 0);
@@ -70,10 +73,10 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
     if (s < 0 || s >= nodes) return "basis root out of range";
     if (seen[std::size_t(s)]) continue;
     seen[std::size_t(s)] = 1;
-    node_[std::size_t(s)].parent = root_;
-    node_[std::size_t(s)].pred = kArtificial;
-    node_[std::size_t(s)].predFlow = 0;
-    node_[std::size_t(s)].up = 1;
+    parent_[std::size_t(s)] = root_;
+    pred_[std::size_t(s)] = kArtificial;
+    predFlow_[std::size_t(s)] = 0;
+    up_[std::size_t(s)] = 1;
     stack.push_back(s);
     while (!stack.empty()) {
       const int v = stack.back();
@@ -81,15 +84,15 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
       order.push_back(v);
       for (int k = start[std::size_t(v)]; k < start[std::size_t(v) + 1]; ++k) {
         const int e = adj[std::size_t(k)];
-        if (e == node_[std::size_t(v)].pred) continue;
-        const int w = arc_[std::size_t(e)].tail == v ? arc_[std::size_t(e)].head : arc_[std::size_t(e)].tail;
+        if (e == pred_[std::size_t(v)]) continue;
+        const int w = tail_[std::size_t(e)] == v ? head_[std::size_t(e)] : tail_[std::size_t(e)];
         if (seen[std::size_t(w)]) return "basis arcs contain a cycle";
         seen[std::size_t(w)] = 1;
-        node_[std::size_t(w)].parent = v;
-        node_[std::size_t(w)].pred = e;
-        node_[std::size_t(w)].predFlow = flow_[std::size_t(e)];
-        node_[std::size_t(w)].up = arc_[std::size_t(e)].tail == w;
-        if (flow_[std::size_t(e)] == 0 && !node_[std::size_t(w)].up)
+        parent_[std::size_t(w)] = v;
+        pred_[std::size_t(w)] = e;
+        predFlow_[std::size_t(w)] = flow_[std::size_t(e)];
+        up_[std::size_t(w)] = tail_[std::size_t(e)] == w;
+        if (flow_[std::size_t(e)] == 0 && !up_[std::size_t(w)])
           return "basis is not strongly feasible (a zero-flow arc points away from the root)";
         stack.push_back(w);
       }
@@ -99,9 +102,9 @@ std::string NetworkSimplex::setBasis(const std::vector<BasisArc>& arcs, const st
   for (std::size_t p = 0; p < order.size(); ++p) chain(order[p], order[(p + 1) % order.size()]);
   std::vector<int> position(order.size());
   for (std::size_t p = 0; p < order.size(); ++p) position[std::size_t(order[p])] = int(p);
-  for (auto& nd : node_) nd.size = 1;
-  for (std::size_t p = order.size(); p-- > 1;) node_[std::size_t(node_[std::size_t(order[p])].parent)].size += node_[std::size_t(order[p])].size;
-  for (int v : order) node_[std::size_t(v)].last = order[std::size_t(position[std::size_t(v)] + node_[std::size_t(v)].size - 1)];
+  std::fill(size_.begin(), size_.end(), 1);
+  for (std::size_t p = order.size(); p-- > 1;) size_[std::size_t(parent_[std::size_t(order[p])])] += size_[std::size_t(order[p])];
+  for (int v : order) last_[std::size_t(v)] = order[std::size_t(position[std::size_t(v)] + size_[std::size_t(v)] - 1)];
   recomputePotentials();
   return {};
 }
@@ -112,16 +115,16 @@ void NetworkSimplex::basis(std::vector<BasisArc>* arcs, std::vector<int>* roots)
   for (int e = 0; e < arcCount(); ++e)
     if (basic_[std::size_t(e)]) arcs->push_back({e, flow_[std::size_t(e)]});
   for (int v = 0; v < root_; ++v)
-    if (node_[std::size_t(v)].parent == root_) roots->push_back(v);
+    if (parent_[std::size_t(v)] == root_) roots->push_back(v);
 }
 
 void NetworkSimplex::recomputePotentials() {
   pot_[std::size_t(root_)] = 0.0;
   for (int v = thread_[std::size_t(root_)]; v != root_; v = thread_[std::size_t(v)]) {
     const auto s = std::size_t(v);
-    const auto p = std::size_t(node_[s].parent);
-    const double c = node_[s].pred >= 0 ? arc_[std::size_t(node_[s].pred)].cost : 0.0;
-    pot_[s] = node_[s].up ? pot_[p] + c : pot_[p] - c;
+    const auto p = std::size_t(parent_[s]);
+    const double c = pred_[s] >= 0 ? cost_[std::size_t(pred_[s])] : 0.0;
+    pot_[s] = up_[s] ? pot_[p] + c : pot_[p] - c;
   }
 }
 
@@ -139,7 +142,7 @@ int NetworkSimplex::findEntering(double tolerance) {
     const int end = std::min(total, begin + std::min(block, total - scanned));
     for (int e = begin; e < end; ++e) {
       const auto s = std::size_t(e);
-      const double rc = arc_[s].cost - pot_[std::size_t(arc_[s].tail)] + pot_[std::size_t(arc_[s].head)];
+      const double rc = cost_[s] - pot_[std::size_t(tail_[s])] + pot_[std::size_t(head_[s])];
       if (rc < best && !basic_[s]) {
         best = rc;
         chosen = e;
@@ -162,7 +165,7 @@ void NetworkSimplex::shiftPotentials(int first, int last, double shift) {
 
 void NetworkSimplex::pivot(int e) {
   const auto se = std::size_t(e);
-  const int k = arc_[se].tail, l = arc_[se].head;
+  const int k = tail_[se], l = head_[se];
 
   // Walk both ends up to the apex (the larger subtree is the ancestor). On k's side the
   // cycle runs downwards, so arcs pointing up lose flow; on l's side it runs upwards, so
@@ -174,18 +177,18 @@ void NetworkSimplex::pivot(int e) {
   int leaveK = kNone, leaveL = kNone;
   int x = k, y = l;
   while (x != y) {
-    if (node_[std::size_t(x)].size < node_[std::size_t(y)].size) {
-      if (node_[std::size_t(x)].up) {
-        const Mass f = node_[std::size_t(x)].predFlow;
+    if (size_[std::size_t(x)] < size_[std::size_t(y)]) {
+      if (up_[std::size_t(x)]) {
+        const Mass f = predFlow_[std::size_t(x)];
         if (f < bestK) bestK = f, leaveK = x;
       }
-      x = node_[std::size_t(x)].parent;
+      x = parent_[std::size_t(x)];
     } else {
-      if (!node_[std::size_t(y)].up) {
-        const Mass f = node_[std::size_t(y)].predFlow;
+      if (!up_[std::size_t(y)]) {
+        const Mass f = predFlow_[std::size_t(y)];
         if (f <= bestL) bestL = f, leaveL = y;
       }
-      y = node_[std::size_t(y)].parent;
+      y = parent_[std::size_t(y)];
     }
   }
   const int apex = x;
@@ -194,17 +197,17 @@ void NetworkSimplex::pivot(int e) {
   const int q = leaveOnL ? leaveL : leaveK;  // the leaving arc is pred(q)
 
   if (delta > 0) {
-    for (int w = k; w != apex; w = node_[std::size_t(w)].parent)
-      node_[std::size_t(w)].predFlow += node_[std::size_t(w)].up ? -delta : delta;
-    for (int w = l; w != apex; w = node_[std::size_t(w)].parent)
-      node_[std::size_t(w)].predFlow += node_[std::size_t(w)].up ? delta : -delta;
+    for (int w = k; w != apex; w = parent_[std::size_t(w)])
+      predFlow_[std::size_t(w)] += up_[std::size_t(w)] ? -delta : delta;
+    for (int w = l; w != apex; w = parent_[std::size_t(w)])
+      predFlow_[std::size_t(w)] += up_[std::size_t(w)] ? delta : -delta;
   } else {
     ++degenerate_;
   }
   basic_[se] = 1;
-  if (node_[std::size_t(q)].pred >= 0) {
-    basic_[std::size_t(node_[std::size_t(q)].pred)] = 0;
-    flow_[std::size_t(node_[std::size_t(q)].pred)] = 0;  // it leaves with zero flow
+  if (pred_[std::size_t(q)] >= 0) {
+    basic_[std::size_t(pred_[std::size_t(q)])] = 0;
+    flow_[std::size_t(pred_[std::size_t(q)])] = 0;  // it leaves with zero flow
   }
 
   // The subtree S under q is cut out and hung again from the entering arc, re-rooted at s
@@ -212,20 +215,20 @@ void NetworkSimplex::pivot(int e) {
   // thread neighbours, last descendants and sizes of its nodes first.
   const int s = leaveOnL ? l : k;
   const int t = leaveOnL ? k : l;
-  const int oldParentQ = node_[std::size_t(q)].parent;
-  const int sizeS = node_[std::size_t(q)].size;
+  const int oldParentQ = parent_[std::size_t(q)];
+  const int sizeS = size_[std::size_t(q)];
   path_.clear();
   pathPrev_.clear();
   pathLast_.clear();
   pathAfter_.clear();
   pathSize_.clear();
-  for (int w = s;; w = node_[std::size_t(w)].parent) {
+  for (int w = s;; w = parent_[std::size_t(w)]) {
     const auto sw = std::size_t(w);
     path_.push_back(w);
     pathPrev_.push_back(revThread_[sw]);
-    pathLast_.push_back(node_[sw].last);
-    pathAfter_.push_back(thread_[std::size_t(node_[sw].last)]);
-    pathSize_.push_back(node_[sw].size);
+    pathLast_.push_back(last_[sw]);
+    pathAfter_.push_back(thread_[std::size_t(last_[sw])]);
+    pathSize_.push_back(size_[sw]);
     if (w == q) break;
   }
   const std::size_t r = path_.size() - 1;
@@ -233,9 +236,9 @@ void NetworkSimplex::pivot(int e) {
   // 1. Cut S out of the thread; ancestors whose subtree ended with S now end before it.
   const int beforeS = pathPrev_[r], afterS = pathAfter_[r], lastS = pathLast_[r];
   chain(beforeS, afterS);
-  for (int w = oldParentQ; w != kNone && node_[std::size_t(w)].last == lastS; w = node_[std::size_t(w)].parent)
-    node_[std::size_t(w)].last = beforeS;
-  for (int w = oldParentQ; w != apex; w = node_[std::size_t(w)].parent) node_[std::size_t(w)].size -= sizeS;
+  for (int w = oldParentQ; w != kNone && last_[std::size_t(w)] == lastS; w = parent_[std::size_t(w)])
+    last_[std::size_t(w)] = beforeS;
+  for (int w = oldParentQ; w != apex; w = parent_[std::size_t(w)]) size_[std::size_t(w)] -= sizeS;
 
   // 2. Re-thread S in preorder from s: the old subtree of w0, then for each w_i the part of
   //    its old subtree outside w_{i-1}'s (before it, then after it).
@@ -249,35 +252,35 @@ void NetworkSimplex::pivot(int e) {
     }
   }
   for (std::size_t i = 0; i <= r; ++i) {
-    node_[std::size_t(path_[i])].last = tailS;
-    node_[std::size_t(path_[i])].size = i == 0 ? sizeS : sizeS - pathSize_[i - 1];
+    last_[std::size_t(path_[i])] = tailS;
+    size_[std::size_t(path_[i])] = i == 0 ? sizeS : sizeS - pathSize_[i - 1];
   }
 
   // 3. Reverse parents along the path and hang s from t by the entering arc.
   for (std::size_t i = r; i >= 1; --i) {
     const auto child = std::size_t(path_[i]);
     const auto below = std::size_t(path_[i - 1]);
-    node_[child].parent = path_[i - 1];
-    node_[child].pred = node_[below].pred;
-    node_[child].predFlow = node_[below].predFlow;
-    node_[child].up = !node_[below].up;
+    parent_[child] = path_[i - 1];
+    pred_[child] = pred_[below];
+    predFlow_[child] = predFlow_[below];
+    up_[child] = !up_[below];
   }
-  node_[std::size_t(s)].parent = t;
-  node_[std::size_t(s)].pred = e;
-  node_[std::size_t(s)].predFlow = delta;
-  node_[std::size_t(s)].up = s == k;
+  parent_[std::size_t(s)] = t;
+  pred_[std::size_t(s)] = e;
+  predFlow_[std::size_t(s)] = delta;
+  up_[std::size_t(s)] = s == k;
 
   // 4. Splice S in right after t; ancestors whose subtree ended at t now end with S.
   const int afterT = thread_[std::size_t(t)];
-  for (int w = t; w != kNone && node_[std::size_t(w)].last == t; w = node_[std::size_t(w)].parent)
-    node_[std::size_t(w)].last = tailS;
+  for (int w = t; w != kNone && last_[std::size_t(w)] == t; w = parent_[std::size_t(w)])
+    last_[std::size_t(w)] = tailS;
   chain(t, s);
   chain(tailS, afterT);
-  for (int w = t; w != apex; w = node_[std::size_t(w)].parent) node_[std::size_t(w)].size += sizeS;
+  for (int w = t; w != apex; w = parent_[std::size_t(w)]) size_[std::size_t(w)] += sizeS;
 
   // 5. Potentials: the entering arc becomes tight by shifting S by −rc·(±1), or, when S is
   //    the larger part, everything else by the opposite amount (only differences matter).
-  const double rc = arc_[se].cost - pot_[std::size_t(k)] + pot_[std::size_t(l)];
+  const double rc = cost_[se] - pot_[std::size_t(k)] + pot_[std::size_t(l)];
   const double shift = s == k ? rc : -rc;
   const int total = root_ + 1;
   if (2 * sizeS <= total) shiftPotentials(s, tailS, shift);
@@ -286,7 +289,7 @@ void NetworkSimplex::pivot(int e) {
 
 void NetworkSimplex::syncFlows() {
   for (int v = 0; v < root_; ++v)
-    if (node_[std::size_t(v)].pred >= 0) flow_[std::size_t(node_[std::size_t(v)].pred)] = node_[std::size_t(v)].predFlow;
+    if (pred_[std::size_t(v)] >= 0) flow_[std::size_t(pred_[std::size_t(v)])] = predFlow_[std::size_t(v)];
 }
 
 NetworkSimplex::RunStatus NetworkSimplex::run(double tolerance, long long maxPivots,

@@ -50,10 +50,10 @@ class NetworkSimplex {
   /// Adds the arc i → j with the given cost; returns its id. Arcs added after setBasis()
   /// enter as non-basic with zero flow (the current basis stays feasible).
   int addArc(int i, int j, double cost);
-  int arcCount() const { return int(arc_.size()); }
-  int arcSource(int e) const { return arc_[std::size_t(e)].tail; }
-  int arcSink(int e) const { return arc_[std::size_t(e)].head - n_; }
-  double arcCost(int e) const { return arc_[std::size_t(e)].cost; }
+  int arcCount() const { return int(cost_.size()); }
+  int arcSource(int e) const { return tail_[std::size_t(e)]; }
+  int arcSink(int e) const { return head_[std::size_t(e)] - n_; }
+  double arcCost(int e) const { return cost_[std::size_t(e)]; }
 
   /// Installs a basis: a forest of arcs whose flows meet every supply and demand exactly.
   /// `roots` names, per component, the node that hangs from the root (sources 0..n-1, sinks
@@ -102,34 +102,21 @@ class NetworkSimplex {
   std::vector<Mass> mass_;  // supply (> 0) of sources, demand (> 0) of sinks
 
   // Arcs. flow_ holds tree arcs' flows as of the last setBasis() or run().
-  struct Arc {
-    int tail, head;  // node ids: sources 0..n-1, sinks n..n+m-1
-    double cost;
-  };
-  std::vector<Arc> arc_;  // what the entering-arc search reads, together
+  std::vector<int> tail_, head_;  // node ids: sources 0..n-1, sinks n..n+m-1
+  std::vector<double> cost_;
   std::vector<Mass> flow_;
   std::vector<std::uint8_t> basic_;
   int nextArc_ = 0;
 
   // Spanning tree over n+m+1 nodes (the last is the root), stored as a preorder thread
-  // (circular, through the root): the subtree of v is the thread segment from v to
-  // node_[v].last, of node_[v].size nodes. Subtree sizes find the apex of a cycle (the ancestor is the larger);
+  // (circular, through the root): the subtree of v is the thread segment from v to last_[v],
+  // of size_[v] nodes. Subtree sizes find the apex of a cycle (the ancestor is the larger);
   // contiguous subtrees make re-hanging a subtree a few splices plus one linear sweep.
-  // What a pivot reads while walking up the tree sits together, one cache line per node
-  // visited instead of one per field (perf at 10^5 nodes: pivots spend most of their time
-  // in these walks; cachegrind at 10^4: a third fewer L1 data misses, tests/bench/
-  // RESULTS-exact-ot.md).
-  struct Node {
-    Mass predFlow = 0;     // flow on the pred arc (0 for artificial arcs); flow_ is brought
-                           // up to date from it when run() returns
-    int parent = kNone;
-    int pred = kNone;      // arc to the parent: an arc id, kArtificial, or kNone (root)
-    int size = kNone;      // nodes in the subtree
-    int last = kNone;      // last node of the subtree in thread order
-    std::uint8_t up = 0;   // pred arc points from the node to its parent
-  };
-  std::vector<Node> node_;
-  std::vector<int> thread_, revThread_;
+  std::vector<int> parent_, pred_, thread_, revThread_, last_, size_;
+  std::vector<std::uint8_t> up_;  // pred arc points from the node to its parent
+  std::vector<Mass> predFlow_;    // flow on the pred arc (0 for artificial arcs): kept with
+                                  // the node, as the cycle walk reads it next to parent_ and
+                                  // size_; flow_ is brought up to date when run() returns
   std::vector<double> pot_;       // reduced cost of arc (p → q) is c − pot_p + pot_q
   std::vector<int> path_;         // scratch: the path re-rooted in a pivot
   std::vector<int> pathPrev_, pathLast_, pathAfter_, pathSize_;
