@@ -25,7 +25,7 @@ struct Model {
 // 10^4 and 5·10^4 points.
 const std::map<std::string, Model>& models() {
   static const std::map<std::string, Model> m = {
-      {"w1", {Growth::Simplex, 1.9 / std::pow(1e8, 1.09), true}},
+      {"w1", {Growth::Simplex, 1.4 / std::pow(1e8, 1.09), true}},
       {"w2", {Growth::Simplex, 0.6 / std::pow(1e8, 1.09), true}},
       {"entropic", {Growth::Pairs, 3.0 / 1e8, true}},
       {"sinkhorn", {Growth::Sinkhorn, 3.0 / 1e8, true}},

@@ -101,7 +101,10 @@ WassersteinBracket bracketWasserstein(const Cloud& a, const Cloud& b, int p, Eig
   out.quantiseSeconds = since(t0);
 
   const auto t1 = std::chrono::steady_clock::now();
-  const ExactOtOptions o = exactOtOptionsFor(p);
+  // Plain options, not exactOtOptionsFor: W1's optimal duals are not unique, and the bracket's
+  // dual lower bound was measured (RESULTS-large-wp.md) with the duals these options give.
+  ExactOtOptions o;
+  o.p = p;
   out.quantised = solveExactOt(out.representativesOfA, out.representativesOfB, o, &solve, warm);
   out.solveSeconds = since(t1);
   if (out.quantised.status == ExactOtStatus::Cancelled) out.cancelled = true;

@@ -82,7 +82,8 @@ struct ExactOtResult {
   std::optional<bool> planUnique; // false: some arc off the basis has zero reduced cost
 };
 
-/// The options the measures use for cost exponent p: the defaults above, except that for
+/// The options the w1/w2 measures use for an exact solve (not their bracket's) for cost
+/// exponent p: the defaults above, except that for
 /// p = 1 the coarse-to-fine start guides 24 arcs per point and pricing adds up to 16 per
 /// row. Under |x − y| the potentials tie along whole rays, so the few nearest neighbours and
 /// 8 guided arcs miss much of the optimal support; the wider candidate sets took a quarter
