@@ -52,9 +52,7 @@ TEST(WassersteinMeasureTest, ResultCarriesValuePotentialsPlanAndDetails) {
     EvalRequest req;
     const Result r = evaluateMeasure(m, a, b, req);
     ASSERT_EQ(r.status, Status::Ok) << r.message;
-    ExactOtOptions o;
-    o.p = p;
-    const auto s = solveExactOt(a, b, o);
+    const auto s = solveExactOt(a, b, exactOtOptionsFor(p));  // the options the measure uses
     EXPECT_DOUBLE_EQ(r.value, s.value);
     if (p == 2) {
       EXPECT_NEAR(r.value * r.value, s.cost, 1e-14);
