@@ -102,7 +102,7 @@ void FieldView::setClouds(const Cloud& a, const Cloud& b) {
   // Keep drawn plans attached to the points they connect while the points move; the new plan
   // replaces them when it arrives.
   if (!exactPlan_.empty()) exact_->setPlan(exactPlan_, a_.points, b_.points);
-  if (entropic_->visible()) entropic_->setPlan(entropicPlan_, a_.points, b_.points);
+  if (entropic_->visible()) entropic_->setPlan(entropicPlan_, a_.points, b_.points, SegmentLayer::kHazeBudget);
   cloudA_->setName(QString::fromStdString("A: " + (a.name.empty() ? std::string("cloud A") : a.name)));
   cloudB_->setName(QString::fromStdString("B: " + (b.name.empty() ? std::string("cloud B") : b.name)));
   if (!everFitted_ && (a.size() > 0 || b.size() > 0)) {
@@ -132,7 +132,7 @@ void FieldView::setExactPlan(const std::vector<PlanEntry>& plan, const QString& 
 
 void FieldView::setEntropicPlan(const std::vector<PlanEntry>& plan, const QString& label) {
   entropicPlan_ = plan;
-  entropic_->setPlan(plan, a_.points, b_.points);
+  entropic_->setPlan(plan, a_.points, b_.points, SegmentLayer::kHazeBudget);
   entropic_->setLabel(label);
   entropic_->setVisible(true);
   refresh();

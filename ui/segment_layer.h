@@ -23,8 +23,10 @@ class SegmentLayer : public QCPAbstractPlottable {
   /// `budget` entries are drawn, chosen by mass (thinByMass); all are kept for the read-out.
   void setPlan(const std::vector<PlanEntry>& plan, const Eigen::MatrixX2d& a,
                const Eigen::MatrixX2d& b, std::size_t budget = kDrawBudget);
-  /// About what a 1400×900 Field shows legibly: ~2 segments per 100 px² of plot.
+  /// A vertex plan's segments are read one by one: about what a 1400×900 Field shows legibly.
   static constexpr std::size_t kDrawBudget = 4000;
+  /// A spread-out (entropic) plan is read as a haze of faint segments: many more are drawn.
+  static constexpr std::size_t kHazeBudget = 40000;
   /// The legend's name; a note on the share of mass drawn is added when not all is.
   void setLabel(const QString& label);
   void clearPlan();

@@ -117,6 +117,20 @@ TEST(PlanOverlayTest, EntropicPlanCarriesUnitMass) {
   EXPECT_NEAR(total, 1.0, 1e-6);  // [D] a coupling of two probability vectors
 }
 
+TEST(PlanOverlayTest, AnEntropicPlanIsDrawnAsAHazeCarryingMostOfItsMass) {
+  // The demo's entropic plan has tens of thousands of entries of similar mass: it is drawn
+  // with the haze budget, not the few thousand segments a vertex plan gets, so the drawn
+  // segments carry most of the mass, and the legend says how much.
+  auto w = makeWindow(demoSession());
+  w->field()->setEntropicShown(true);
+  ASSERT_TRUE(waitIdle(*w));
+  const SegmentLayer* ent = w->field()->view()->entropicLayer();
+  ASSERT_GT(ent->segmentCount(), SegmentLayer::kDrawBudget);
+  EXPECT_GT(ent->shownMassShare(), 0.9);
+  EXPECT_LE(ent->drawnCount(), SegmentLayer::kHazeBudget);
+  if (ent->drawnCount() < ent->segmentCount()) EXPECT_TRUE(ent->name().contains("of mass")) << ent->name().toStdString();
+}
+
 TEST(PlanOverlayTest, PotentialMapIsTheKantorovichPotentialOnItsGrid) {
   ASSERT_NE(MeasureRegistry::instance().find("w1"), nullptr) << "w1 is not registered";
   auto w = makeWindow(smallPair());
