@@ -12,18 +12,6 @@ namespace barrow::kernel {
 namespace {
 
 constexpr double kInf = std::numeric_limits<double>::infinity();
-// A stabilised row sum inside this range is accurate in double (see logSumExpRows).
-constexpr double kSumLow = 1e-250;
-constexpr double kSumHigh = 1e250;
-
-// The AVX2 form when the CPU has it (cpu_features.h), else the generic one.
-bool useAvx2() {
-#ifdef BARROW_X86_SIMD
-  return cpuHasAvx2Fma();
-#else
-  return false;
-#endif
-}
 
 #ifdef BARROW_X86_SIMD
 // The AVX2+FMA form, compiled for those instructions whatever the build flags and used only
@@ -276,6 +264,14 @@ void kernelRow(const ScaledPoints& rows, int i, const ScaledPoints& cols, const 
 #endif
   if (p == 2) scalar::rowKernel<2>(rows.x[i], rows.y[i], cols, h.data(), o, out);
   else scalar::rowKernel<1>(rows.x[i], rows.y[i], cols, h.data(), o, out);
+}
+
+bool useAvx2() {
+#ifdef BARROW_X86_SIMD
+  return cpuHasAvx2Fma();
+#else
+  return false;
+#endif
 }
 
 }  // namespace barrow::kernel

@@ -17,6 +17,13 @@
 
 namespace barrow::kernel {
 
+/// A stabilised row sum inside [kSumLow, kSumHigh] is accurate in double (see logSumExpRows).
+inline constexpr double kSumLow = 1e-250;
+inline constexpr double kSumHigh = 1e250;
+
+/// True when the AVX2 forms of the passes may run (the CPU has AVX2+FMA, cpu_features.h).
+bool useAvx2();
+
 /// Length of a padded column array for `n` points.
 int paddedLength(int n);
 

@@ -16,7 +16,9 @@ namespace barrow {
 namespace {
 
 constexpr double kInf = std::numeric_limits<double>::infinity();
-constexpr double kSumLow = 1e-250, kSumHigh = 1e250;  // as in kernel_pass.cpp
+using kernel::kSumHigh;
+using kernel::kSumLow;
+using kernel::useAvx2;
 
 double costOf(int p, double d2) { return p == 2 ? d2 : std::sqrt(d2); }
 
@@ -44,14 +46,6 @@ BARROW_AVX2_FN double sparseSumAvx2(const int* idx, const double* cost, int coun
   return kernel::hsum4(acc) + rest;
 }
 #endif
-
-bool useAvx2() {
-#ifdef BARROW_X86_SIMD
-  return cpuHasAvx2Fma();
-#else
-  return false;
-#endif
-}
 
 // Row log-sum-exp over a compressed (CSR) pattern; see TruncatedKernel::rowLogSumExp.
 void csrLogSumExp(const std::vector<long long>& start, const std::vector<int>& idx, const std::vector<double>& cost,
