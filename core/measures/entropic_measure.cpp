@@ -1,10 +1,12 @@
 #include "measures/entropic_measure.h"
 
+#include <algorithm>
 #include <cmath>
 #include <memory>
 #include <optional>
 #include <sstream>
 
+#include "measures/entropic_bracket.h"
 #include "transport/sinkhorn_cache.h"
 #include "transport/sinkhorn_carry.h"
 #include "transport/sinkhorn_plan.h"
@@ -61,7 +63,25 @@ std::vector<ParamSpec> entropicParamSpecs(const std::string& group) {
       .minExclusive = true,
       .help = "stop when the L1 error of the plan's marginals (masses sum to 1) is below this; the "
             "value itself is typically accurate to far better"};
-  return {eps, p, iters, tol};
+  const ParamSpec limit{
+      .key = group + ".exact_limit",
+      .kind = ParamKind::Integer,
+      .defaultValue = std::to_string(kEntropicDefaultExactLimit),
+      .min = 0,
+      .max = 2000000000,
+      .unit = "points",
+      .help = "largest cloud (points of positive weight) solved in full; larger clouds get a certified "
+              "bracket [low, high] (0: always bracket; a huge value: always the full solve)"};
+  const ParamSpec reps{
+      .key = group + ".representatives",
+      .kind = ParamKind::Integer,
+      .defaultValue = std::to_string(kEntropicDefaultRepresentatives),
+      .min = 1,
+      .max = 2000000000,
+      .unit = "points",
+      .help = "bracket mode: each cloud is quantised to this many representatives and the problem solved "
+              "between them"};
+  return {eps, p, iters, tol, limit, reps};
 }
 
 EntropicSettings readEntropicSettings(const std::string& group, const ParamSet& params, const Cloud& a,
@@ -71,6 +91,10 @@ EntropicSettings readEntropicSettings(const std::string& group, const ParamSet& 
   if (params.has(group + ".p")) o.p = params.integer(group + ".p");
   if (params.has(group + ".max_iterations")) o.maxIterations = params.integer(group + ".max_iterations");
   if (params.has(group + ".tolerance")) o.tolerance = params.real(group + ".tolerance");
+  s.exactLimit = params.has(group + ".exact_limit") ? params.integer(group + ".exact_limit")
+                                                    : kEntropicDefaultExactLimit;
+  s.representatives = params.has(group + ".representatives") ? params.integer(group + ".representatives")
+                                                             : kEntropicDefaultRepresentatives;
   // The bounding box's diagonal, by hypot so that it is finite whenever the coordinates are.
   const Eigen::RowVector2d lo = a.points.colwise().minCoeff().cwiseMin(b.points.colwise().minCoeff());
   const Eigen::RowVector2d hi = a.points.colwise().maxCoeff().cwiseMax(b.points.colwise().maxCoeff());
@@ -133,9 +157,38 @@ void addSolveDetails(nlohmann::json& d, const std::string& prefix, const Sinkhor
   }
 }
 
+bool entropicBrackets(const EntropicSettings& s, const Cloud& a, const Cloud& b) {
+  const auto positive = [](const Cloud& c) { return (c.weights.array() > 0).count(); };
+  return std::max(positive(a), positive(b)) > s.exactLimit;
+}
+
 Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   const EntropicSettings s = readEntropicSettings("entropic", ctx.params, a, b);
   if (!s.error.empty()) return Result::invalid(s.error);
+  if (entropicBrackets(s, a, b)) {
+    kernel::RowWorkers team(ctx.threads());
+    const EntropicBracket e = bracketEntropicShared(a, b, false, s.options, s.representatives, ctx.control, team);
+    if (e.cancelled) return Result::cancelled();
+    Result r;
+    if (!e.usable) {
+      r.status = Status::NotConverged;
+      r.value = NAN;
+      r.message = "bracket: " + e.message;
+      return r;
+    }
+    r.status = Status::Bracketed;
+    r.message.clear();
+    r.low = e.low;
+    r.high = e.high;
+    r.value = 0.5 * (e.low + e.high);
+    r.iterations = e.quantised.iterations;
+    r.details = entropicDetails(s);
+    addBracketDetails(r.details, "", e);
+    r.details["value_is"] = "midpoint of [low, high]";
+    r.details["width"] = e.high - e.low;
+    r.details["value_accuracy"] = 0.5 * (e.high - e.low);
+    return r;
+  }
   const SinkhornOptions& o = s.options;
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
 
@@ -195,7 +248,8 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
 std::optional<Eigen::MatrixX2d> EntropicMeasure::gradientA(const Cloud& a, const Cloud& b,
                                                            const EvalContext& ctx, const Result& r) const {
   const EntropicSettings s = readEntropicSettings("entropic", ctx.params, a, b);
-  if (!s.error.empty() || !r.usable()) return std::nullopt;
+  // A bracket carries no potentials of the full problem (and solving it is what it avoids).
+  if (!s.error.empty() || !r.usable() || r.status == Status::Bracketed) return std::nullopt;
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = b.normalizedWeights();
   kernel::RowWorkers team(ctx.threads());
   // Re-solve from r's potentials: one pass confirms them (or finishes them if r stopped short

@@ -13,7 +13,8 @@
 
 namespace barrow {
 
-/// Parameter specs <group>.epsilon, .p, .max_iterations, .tolerance.
+/// Parameter specs <group>.epsilon, .p, .max_iterations, .tolerance, .exact_limit,
+/// .representatives.
 std::vector<ParamSpec> entropicParamSpecs(const std::string& group);
 
 /// The settings one evaluation uses, read from resolved parameters.
@@ -22,6 +23,8 @@ struct EntropicSettings {
   double diameter = 0.0;         // joint diameter D of A and B
   bool automatic = false;        // ε came from the "auto" rule (D/20)^p
   double costBound = 0.0;        // (bounding-box diagonal)^p: no cost |x − y|^p exceeds it
+  long long exactLimit = 0;      // larger clouds (points of positive weight) are bracketed
+  long long representatives = 0; // bracket mode: points per quantised cloud (entropic_bracket.h)
   /// Reason the settings are unusable (e.g. "auto" on two identical single points).
   std::string error;
 };
@@ -42,6 +45,9 @@ inline constexpr const char* kEntropicUnitRule =
 
 /// Details every entropic result carries: ε (absolute and relative to D^p), p, tolerance...
 nlohmann::json entropicDetails(const EntropicSettings& s);
+/// True when a cloud has more points of positive weight than s.exactLimit: the value is
+/// then a certified bracket (entropic_bracket.h).
+bool entropicBrackets(const EntropicSettings& s, const Cloud& a, const Cloud& b);
 /// Adds a solve's diagnostics under `prefix` (e.g. "" or "ab_").
 void addSolveDetails(nlohmann::json& d, const std::string& prefix, const SinkhornResult& r);
 

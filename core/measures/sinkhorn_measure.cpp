@@ -6,6 +6,7 @@
 #include <tuple>
 
 #include "cloud/congruence.h"
+#include "measures/entropic_bracket.h"
 #include "measures/entropic_measure.h"
 #include "transport/sinkhorn_cache.h"
 #include "transport/sinkhorn_carry.h"
@@ -104,6 +105,53 @@ ThreeSolves solveAll(const Cloud& a, const Cloud& b, const EntropicSettings& s, 
   return t;
 }
 
+// Clouds above the exact limit: the three terms bracketed (entropic_bracket.h), combined with
+// their signs. S_ε ≥ 0 for the costs |x − y| and |x − y|² (Feydy et al. 2019, Thm 1), so low is
+// at least 0.
+Result bracketDivergence(const Cloud& a, const Cloud& b, const EntropicSettings& s, const EvalContext& ctx) {
+  kernel::RowWorkers team(ctx.threads());
+  const RunControl* c = ctx.control;
+  const RunControl cab = subControl(c, 0.0, 0.5), caa = subControl(c, 0.5, 0.75), cbb = subControl(c, 0.75, 1.0);
+  const SinkhornOptions& o = s.options;
+  const Eigen::Index k = s.representatives;
+  const EntropicBracket ab = bracketEntropicShared(a, b, false, o, k, c ? &cab : nullptr, team);
+  if (ab.cancelled) return Result::cancelled();
+  const EntropicBracket aa = ab.usable ? bracketEntropicShared(a, a, true, o, k, c ? &caa : nullptr, team) : ab;
+  if (aa.cancelled) return Result::cancelled();
+  // B a rigid motion of A: the same self term (it depends only on distances within the cloud).
+  const bool same = aa.usable && rigidlyCongruent(a, b);
+  const EntropicBracket bb = !aa.usable || same ? aa : bracketEntropicShared(b, b, true, o, k, c ? &cbb : nullptr, team);
+  if (bb.cancelled) return Result::cancelled();
+  Result r;
+  for (const EntropicBracket* e : {&ab, &aa, &bb})
+    if (!e->usable) {
+      r.status = Status::NotConverged;
+      r.value = NAN;
+      r.message = "bracket: " + e->message;
+      return r;
+    }
+  r.status = Status::Bracketed;
+  r.message.clear();
+  r.low = std::max(0.0, ab.low - 0.5 * aa.high - 0.5 * bb.high);
+  r.high = std::max(r.low, ab.high - 0.5 * aa.low - 0.5 * bb.low);
+  r.value = 0.5 * (r.low + r.high);
+  r.iterations = ab.quantised.iterations + aa.quantised.iterations + (same ? 0 : bb.quantised.iterations);
+  r.details = entropicDetails(s);
+  r.details["rule"] = "each term OT_eps bracketed; low = low_ab - (high_aa + high_bb)/2, high = high_ab - "
+                      "(low_aa + low_bb)/2, and low >= 0 (S_eps is non-negative)";
+  r.details["ot_ab"] = {ab.low, ab.high};
+  r.details["ot_aa"] = {aa.low, aa.high};
+  r.details["ot_bb"] = {bb.low, bb.high};
+  addBracketDetails(r.details, "ab_", ab);
+  addBracketDetails(r.details, "aa_", aa);
+  addBracketDetails(r.details, "bb_", bb);
+  r.details["bb_is_aa"] = same;
+  r.details["value_is"] = "midpoint of [low, high]";
+  r.details["width"] = r.high - r.low;
+  r.details["value_accuracy"] = 0.5 * (r.high - r.low);
+  return r;
+}
+
 }  // namespace
 
 std::vector<ParamSpec> SinkhornMeasure::params() const { return entropicParamSpecs(kGroup); }
@@ -115,6 +163,7 @@ ParamSet SinkhornMeasure::freeze(const Cloud& a, const Cloud& b, const ParamSet&
 Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalContext& ctx) const {
   const EntropicSettings s = readEntropicSettings(kGroup, ctx.params, a, b);
   if (!s.error.empty()) return Result::invalid(s.error);
+  if (entropicBrackets(s, a, b)) return bracketDivergence(a, b, s, ctx);
   kernel::RowWorkers team(ctx.threads());
   ThreeSolves t = solveAll(a, b, s, ctx, team);
 
@@ -182,7 +231,8 @@ Result SinkhornMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
 std::optional<Eigen::MatrixX2d> SinkhornMeasure::gradientA(const Cloud& a, const Cloud& b,
                                                            const EvalContext& ctx, const Result& r) const {
   const EntropicSettings s = readEntropicSettings(kGroup, ctx.params, a, b);
-  if (!s.error.empty() || !r.usable()) return std::nullopt;
+  // A bracket carries no potentials of the full problems (and solving them is what it avoids).
+  if (!s.error.empty() || !r.usable() || r.status == Status::Bracketed) return std::nullopt;
   // The potentials of the three problems: instant when ctx.warm holds evaluate()'s state.
   kernel::RowWorkers team(ctx.threads());
   const ThreeSolves t = solveAll(a, b, s, ctx, team, false);

@@ -12,6 +12,7 @@
 // Clouds: A uniform on [0,1]², B uniform on [0.5,1.5]×[0.2,1.2] (the example, seeded
 // here with std::mt19937_64), uniform weights. Counters: seconds of each measure (wall), the
 // process CPU seconds (both cores), full-cloud iterations of each solve, and both values.
+//   BM_Bracket/n/k    both measures above their exact limit: certified brackets (entropic_bracket.h)
 // Run: build with -DBARROW_BUILD_BENCH=ON, then
 //   tests/bench/bench_entropic_pair --benchmark_filter=BM_Pair
 #include <benchmark/benchmark.h>
@@ -128,6 +129,38 @@ void BM_SmallEpsilon(benchmark::State& state) {
                  r.marginalError, r.keptPairs, r.neglectedBound);
   }
 }
+
+// `entropic` then `sinkhorn` above their exact limit (measures/entropic_bracket.h): certified
+// brackets at the default settings. Args: n (both clouds), representatives (0: the default).
+void BM_Bracket(benchmark::State& state) {
+  const int n = int(state.range(0)), k = int(state.range(1));
+  const Cloud a = uniformCloud(n, 1, 0.0, 0.0), b = uniformCloud(n, 2, 0.5, 0.2);
+  EvalRequest req;
+  req.params.set("entropic.exact_limit", "0");
+  req.params.set("sinkhorn.exact_limit", "0");
+  if (k > 0) {
+    req.params.set("entropic.representatives", std::to_string(k));
+    req.params.set("sinkhorn.representatives", std::to_string(k));
+  }
+  for (auto _ : state) {
+    const double cpu0 = cpuSeconds();
+    auto t0 = std::chrono::steady_clock::now();
+    const Result ent = evaluateMeasure(EntropicMeasure(), a, b, req);
+    const double entSeconds = seconds(t0);
+    t0 = std::chrono::steady_clock::now();
+    const Result sink = evaluateMeasure(SinkhornMeasure(), a, b, req);
+    state.counters["entropic_s"] = entSeconds;
+    state.counters["sinkhorn_s"] = seconds(t0);
+    state.counters["cpu_s"] = cpuSeconds() - cpu0;
+    state.counters["entropic_rel_width"] = (ent.high - ent.low) / std::abs(ent.value);
+    state.counters["sinkhorn_rel_width"] = (sink.high - sink.low) / std::abs(sink.value);
+    std::fprintf(stderr, "bracket n=%d k=%d: entropic [%.10g, %.10g] sinkhorn [%.10g, %.10g] (%s / %s)\n", n, k,
+                 ent.low, ent.high, sink.low, sink.high, ent.message.c_str(), sink.message.c_str());
+  }
+}
+
+BENCHMARK(BM_Bracket)->Args({10000, 0})->Args({100000, 0})->Args({100000, 16384})
+    ->Unit(benchmark::kSecond)->UseRealTime()->Iterations(1);
 
 BENCHMARK(BM_SmallEpsilon)
     ->Args({10000, 0, 0})->Args({10000, 0, 1})->Args({10000, 1, 0})->Args({10000, 1, 1})
