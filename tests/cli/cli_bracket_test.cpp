@@ -45,6 +45,39 @@ TEST(CliBracketTest, MeasureJsonCarriesLowAndHigh) {
   EXPECT_NE(err.find("w1.representatives"), std::string::npos) << err;
 }
 
+// The same shape for the entropic measures above their exact limit (measures/entropic_bracket.h):
+// bracketed rows with low <= value <= high, the rule in the details, and the values of the full
+// solve (limit raised) inside the bounds [D].
+TEST(CliBracketTest, EntropicMeasuresBracketInJson) {
+  const std::string a = test::uniformSquareCsv("ebracket_a.csv", 700, 0.0, 15),
+                    b = test::uniformSquareCsv("ebracket_b.csv", 650, 0.3, 16);
+  auto measure = [&](const std::string& limit) {
+    std::string out, err;
+    EXPECT_EQ(test::runCommand(std::string(BARROW_CLI) + " measure --a " + a + " --b " + b +
+                                   " --measures entropic,sinkhorn --set entropic.exact_limit=" + limit +
+                                   " --set sinkhorn.exact_limit=" + limit +
+                                   " --set entropic.representatives=150 --set sinkhorn.representatives=150 --json",
+                               &out, &err),
+              0)
+        << err;
+    return nlohmann::json::parse(out);
+  };
+  const auto bracketed = measure("0"), full = measure("1000000");
+  for (int k = 0; k < 2; ++k) {
+    const auto& r = bracketed["measures"][k];
+    EXPECT_EQ(r["status"], "bracketed") << r.dump();
+    ASSERT_TRUE(r["low"].is_number() && r["high"].is_number() && r["value"].is_number()) << r.dump();
+    const double low = r["low"].get<double>(), high = r["high"].get<double>();
+    EXPECT_DOUBLE_EQ(r["value"].get<double>(), 0.5 * (low + high));
+    EXPECT_TRUE(r["details"].contains("rule") || r["details"].contains("ab_rule")) << r.dump();
+    const auto& f = full["measures"][k];
+    EXPECT_EQ(f["status"], "ok");
+    EXPECT_FALSE(f.contains("low"));
+    EXPECT_LE(low, f["value"].get<double>()) << r["id"];
+    EXPECT_GE(high, f["value"].get<double>()) << r["id"];
+  }
+}
+
 // The sweep writes the midpoints and records half the widest bracket as the value's accuracy
 // (`# accuracy.w1=`), which the findings' jump test reads: a shift of A is continuous in W1
 // [D] (W1(A + t, A) = |t| and the triangle inequality), and stays so when bracketed.
