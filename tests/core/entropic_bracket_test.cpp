@@ -193,5 +193,28 @@ TEST(EntropicBracketTest, SharedStoreAndCancel) {
   EXPECT_FALSE(none.usable);
 }
 
+// One thread or two: the same bracket to the last bit (every sum is split by rows and added in
+// a fixed order) [CP].
+TEST(EntropicBracketTest, ThreadCountDoesNotChangeTheBracket) {
+  const Cloud a = blob(2200, 41, 0.0, true), b = blob(1900, 42, 0.3, true);
+  for (int p : {1, 2}) {
+    SinkhornOptions o;
+    o.p = p;
+    o.epsilon = p == 2 ? 0.004 : 0.06;
+    double low[2], high[2];
+    for (int t : {1, 2}) {
+      kernel::RowWorkers team(t);
+      RunControl c;
+      c.threads = t;
+      const EntropicBracket e = bracketEntropic(a, b, false, o, 400, &c, team);
+      ASSERT_TRUE(e.usable) << e.message;
+      low[t - 1] = e.low;
+      high[t - 1] = e.high;
+    }
+    EXPECT_EQ(low[0], low[1]) << "p=" << p;
+    EXPECT_EQ(high[0], high[1]) << "p=" << p;
+  }
+}
+
 }  // namespace
 }  // namespace barrow
