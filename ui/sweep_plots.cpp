@@ -327,9 +327,22 @@ void SweepPlots::setStale(bool stale) {
 
 void SweepPlots::setNormalised(bool on) {
   normalised_ = on;
-  values_->axis(QCPAxis::atLeft)->setLabel(on ? tr("D (normalised)") : tr("D"));
-  slopes_->axis(QCPAxis::atLeft)->setLabel(on ? tr("dD/dθ (normalised)") : tr("dD/dθ"));
+  fitAxisLabels();
   rebuild();
+}
+
+void SweepPlots::fitAxisLabels() {
+  // The left labels run up the axis: a label longer than its pane is tall gets clipped (seen in
+  // a 1000×700 window), so the short form is used when the long one does not fit.
+  const int spare = std::max(0, plot_->height() - 60);  // less the bottom axis and margins
+  const auto pick = [&](QCPAxis* axis, double share, const QString& full, const QString& shortForm) {
+    const QFontMetrics fm(axis->labelFont());
+    axis->setLabel(fm.horizontalAdvance(full) + 8 <= int(share * spare) ? full : shortForm);
+  };
+  pick(values_->axis(QCPAxis::atLeft), 0.6, normalised_ ? tr("D (normalised)") : tr("D"),
+       normalised_ ? tr("D (norm.)") : tr("D"));
+  pick(slopes_->axis(QCPAxis::atLeft), 0.4, normalised_ ? tr("dD/dθ (normalised)") : tr("dD/dθ"),
+       normalised_ ? tr("dD/dθ (n.)") : tr("dD/dθ"));
 }
 
 void SweepPlots::highlight(const std::string& id) {
@@ -734,6 +747,7 @@ void SweepPlots::fitLegend() {
 void SweepPlots::resizeEvent(QResizeEvent* e) {
   QWidget::resizeEvent(e);
   const int before = plot_->legend->wrap();
+  fitAxisLabels();
   fitLegend();
   if (plot_->legend->wrap() != before) plot_->replot(QCustomPlot::rpQueuedReplot);
 }

@@ -73,6 +73,8 @@ class SweepPlots : public QWidget {
 
  protected:
   void resizeEvent(QResizeEvent* e) override;
+  /// Long or short left-axis labels, whichever fits the panes' height.
+  void fitAxisLabels();
 
  private:
   void rebuild();
