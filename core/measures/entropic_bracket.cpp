@@ -148,14 +148,6 @@ EntropicBracket bracketEntropic(const Cloud& a, const Cloud& b, bool self, const
 
 namespace {
 
-bool sameOptions(const SinkhornOptions& x, const SinkhornOptions& y) {
-  return x.epsilon == y.epsilon && x.p == y.p && x.maxIterations == y.maxIterations && x.tolerance == y.tolerance &&
-         x.epsilonScaling == y.epsilonScaling && x.scalingFactor == y.scalingFactor &&
-         x.stageIterations == y.stageIterations && x.stageTolerance == y.stageTolerance &&
-         x.overRelaxation == y.overRelaxation && x.coarseGrid == y.coarseGrid && x.coarseFrom == y.coarseFrom &&
-         x.truncation == y.truncation && x.truncateFrom == y.truncateFrom;
-}
-
 bool sameCloud(const Cloud& x, const Cloud& y) {
   return x.points.rows() == y.points.rows() && x.weights.size() == y.weights.size() && x.points == y.points &&
          x.weights == y.weights;
@@ -181,7 +173,7 @@ EntropicBracket bracketEntropicShared(const Cloud& a, const Cloud& b, bool self,
   {
     const std::lock_guard<std::mutex> lock(mutex);
     for (auto it = kept.begin(); it != kept.end(); ++it)
-      if (it->self == self && it->representatives == representatives && sameOptions(it->options, o) &&
+      if (it->self == self && it->representatives == representatives && sameSinkhornOptions(it->options, o) &&
           sameCloud(it->a, a) && (self || sameCloud(it->b, b))) {
         kept.splice(kept.begin(), kept, it);
         return kept.front().result;

@@ -169,18 +169,13 @@ Result EntropicMeasure::evaluate(const Cloud& a, const Cloud& b, const EvalConte
     kernel::RowWorkers team(ctx.threads());
     const EntropicBracket e = bracketEntropicShared(a, b, false, s.options, s.representatives, ctx.control, team);
     if (e.cancelled) return Result::cancelled();
-    Result r;
     if (!e.usable) {
+      Result r;
       r.status = Status::NotConverged;
-      r.value = NAN;
       r.message = "bracket: " + e.message;
       return r;
     }
-    r.status = Status::Bracketed;
-    r.message.clear();
-    r.low = e.low;
-    r.high = e.high;
-    r.value = 0.5 * (e.low + e.high);
+    Result r = Result::bracketed(e.low, e.high);
     r.iterations = e.quantised.iterations;
     r.details = entropicDetails(s);
     addBracketDetails(r.details, "", e);

@@ -45,6 +45,16 @@ struct Result {
     r.message.clear();
     return r;
   }
+  /// A certified bracket: status Bracketed, value the midpoint (the caller's details say so).
+  static Result bracketed(double low, double high) {
+    Result r;
+    r.status = Status::Bracketed;
+    r.low = low;
+    r.high = high;
+    r.value = 0.5 * (low + high);
+    r.message.clear();
+    return r;
+  }
 };
 
 }  // namespace barrow

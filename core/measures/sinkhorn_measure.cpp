@@ -122,19 +122,15 @@ Result bracketDivergence(const Cloud& a, const Cloud& b, const EntropicSettings&
   const bool same = aa.usable && rigidlyCongruent(a, b);
   const EntropicBracket bb = !aa.usable || same ? aa : bracketEntropicShared(b, b, true, o, k, c ? &cbb : nullptr, team);
   if (bb.cancelled) return Result::cancelled();
-  Result r;
   for (const EntropicBracket* e : {&ab, &aa, &bb})
     if (!e->usable) {
+      Result r;
       r.status = Status::NotConverged;
-      r.value = NAN;
       r.message = "bracket: " + e->message;
       return r;
     }
-  r.status = Status::Bracketed;
-  r.message.clear();
-  r.low = std::max(0.0, ab.low - 0.5 * aa.high - 0.5 * bb.high);
-  r.high = std::max(r.low, ab.high - 0.5 * aa.low - 0.5 * bb.low);
-  r.value = 0.5 * (r.low + r.high);
+  const double low = std::max(0.0, ab.low - 0.5 * aa.high - 0.5 * bb.high);
+  Result r = Result::bracketed(low, std::max(low, ab.high - 0.5 * aa.low - 0.5 * bb.low));
   r.iterations = ab.quantised.iterations + aa.quantised.iterations + (same ? 0 : bb.quantised.iterations);
   r.details = entropicDetails(s);
   r.details["rule"] = "each term OT_eps bracketed; low = low_ab - (high_aa + high_bb)/2, high = high_ab - "

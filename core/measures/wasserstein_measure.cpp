@@ -132,12 +132,10 @@ Result WassersteinMeasure::bracket(const Cloud& a, const Cloud& b, const EvalCon
     r.message = prefix + "is not certified: " + why;
     return r;
   }
-  Result r;
-  r.iterations = int(std::min<long long>(s.pivots, INT_MAX));
   if (w.errorA == 0.0 && w.errorB == 0.0) {
     // Every cell is one position (repeated points): QA = A and QB = B as measures, so the
     // solve between the representatives is the exact answer, not a bracket [D].
-    r = Result::ok(s.value);
+    Result r = Result::ok(s.value);
     r.iterations = int(std::min<long long>(s.pivots, INT_MAX));
     r.details = {{"solver", "network-simplex"},
                  {"cost", GroundCost(p_).label()},
@@ -150,11 +148,8 @@ Result WassersteinMeasure::bracket(const Cloud& a, const Cloud& b, const EvalCon
                  {"duality_gap", s.dualGap}};
     return r;
   }
-  r.status = Status::Bracketed;
-  r.message.clear();
-  r.low = w.low;
-  r.high = w.high;
-  r.value = 0.5 * (w.low + w.high);
+  Result r = Result::bracketed(w.low, w.high);
+  r.iterations = int(std::min<long long>(s.pivots, INT_MAX));
   const std::string won = w.lowRule;
   const std::string lowRule = won == "triangle" ? "W_q - e_a - e_b (triangle inequality)"
                               : won == "dual"   ? "Kantorovich dual: c-transforms of the quantised potentials "

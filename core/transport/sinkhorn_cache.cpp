@@ -38,14 +38,6 @@ bool sameBytes(const M& stored, const M& given) {
           std::memcmp(stored.data(), given.data(), std::size_t(stored.size()) * sizeof(double)) == 0);
 }
 
-// Every field changes the result, so every field is part of the key.
-bool sameOptions(const SinkhornOptions& s, const SinkhornOptions& o) {
-  return s.epsilon == o.epsilon && s.p == o.p && s.maxIterations == o.maxIterations && s.tolerance == o.tolerance &&
-         s.epsilonScaling == o.epsilonScaling && s.scalingFactor == o.scalingFactor &&
-         s.stageIterations == o.stageIterations && s.stageTolerance == o.stageTolerance &&
-         s.overRelaxation == o.overRelaxation && s.coarseGrid == o.coarseGrid && s.coarseFrom == o.coarseFrom &&
-         s.truncation == o.truncation && s.truncateFrom == o.truncateFrom;
-}
 
 std::uint64_t hashOptions(const SinkhornOptions& o) {
   std::uint64_t h = mixDouble(0x51CA7E, o.epsilon);
@@ -108,7 +100,7 @@ struct SinkhornCache::Entry {
   std::size_t bytes = 0;
 
   bool matches(const Key& k) const {
-    return hash == k.hash && symmetric == k.symmetric && sameOptions(options, k.options) && sameBytes(x, *k.x) &&
+    return hash == k.hash && symmetric == k.symmetric && sameSinkhornOptions(options, k.options) && sameBytes(x, *k.x) &&
            sameBytes(a, *k.a) && (symmetric || (sameBytes(y, *k.y) && sameBytes(b, *k.b)));
   }
 };

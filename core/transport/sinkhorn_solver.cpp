@@ -280,6 +280,14 @@ bool solveTruncatedPath(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, con
 
 }  // namespace
 
+bool sameSinkhornOptions(const SinkhornOptions& s, const SinkhornOptions& o) {
+  return s.epsilon == o.epsilon && s.p == o.p && s.maxIterations == o.maxIterations && s.tolerance == o.tolerance &&
+         s.epsilonScaling == o.epsilonScaling && s.scalingFactor == o.scalingFactor &&
+         s.stageIterations == o.stageIterations && s.stageTolerance == o.stageTolerance &&
+         s.overRelaxation == o.overRelaxation && s.coarseGrid == o.coarseGrid && s.coarseFrom == o.coarseFrom &&
+         s.truncation == o.truncation && s.truncateFrom == o.truncateFrom;
+}
+
 std::string checkSinkhornOptions(const SinkhornOptions& o) {
   if (!(o.epsilon > 0) || !std::isfinite(o.epsilon)) return "epsilon must be a finite number > 0";
   if (o.p != 1 && o.p != 2) return "p must be 1 or 2";

@@ -66,9 +66,12 @@ struct SinkhornOptions {
   /// (kept share of the pairs at most kMaxKeptShare) and both clouds have truncateFrom points.
   bool truncation = true;
   int truncateFrom = 1000;
-  // Every field changes the result: each is part of the key of the shared store
-  // (sinkhorn_cache.cpp, sameOptions), so a new field goes there too.
+  // Every field changes the result: each is part of the key of the shared stores
+  // (sameSinkhornOptions, sinkhorn_solver.cpp), so a new field goes there too.
 };
+
+/// True when every field of the two option sets is equal (all of them change a solve).
+bool sameSinkhornOptions(const SinkhornOptions& x, const SinkhornOptions& y);
 
 enum class SinkhornStatus { Converged, MaxIterations, Cancelled, InvalidInput };
 
