@@ -46,7 +46,8 @@ configure() {  # dir sanitizers
 
 asan_core='Cloud*:Csv*:Npy*:Session*:Hostile*:Odd*:FuzzRegressions*:CrashSafety*:Params*:Histogram*'
 asan_core+=':Chamfer*:Hausdorff*:Energy*:Frechet*:NetworkSimplexTest*:Continuity*:JumpJudgement*'
-asan_core+=':SweepEngine*:SweepCsv*:Congruence*:KdTree*'
+asan_core+=':SweepEngine*:SweepCsv*:Congruence*:KdTree*:EntropicBoundsTest*:EntropicBracketTest.Shared*'
+asan_core+=':EntropicBracketTest.ThreadCount*'
 start=$(date +%s)
 if [ "$which" = asan ] || [ "$which" = all ]; then
   echo "== ASan+UBSan build"
@@ -65,7 +66,7 @@ if [ "$which" = tsan ] || [ "$which" = all ]; then
   export TSAN_OPTIONS=halt_on_error=1:second_deadlock_stack=1
   filter='SweepEngineTest.*:ExactPricingTest.*:RowWorkersTest.*:KernelPassTest.*:PairSumTest.*:ChamferTest.*'
   filter+=':ThreadBudgetTest.*:WarmColdPropertyTest.RandomWeighted*'
-  filter+=':SinkhornCacheTest.*'
+  filter+=':SinkhornCacheTest.*:EntropicBracketTest.ThreadCount*:EntropicBracketTest.Shared*'
   echo "== TSan: threaded core tests"
   build-tsan/tests/barrow_core_tests --gtest_brief=1 --gtest_filter="$filter"
   echo "== TSan: CLI sweep tests"

@@ -121,9 +121,11 @@ EntropicBracket bracketEntropic(const Cloud& a, const Cloud& b, bool self, const
   // Potentials on every point: c-transforms of the quantised ones; then one pass for low.
   if (control && control->shouldStop(0.5)) return cancelledBracket();
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = bb.normalizedWeights();
-  const Eigen::VectorXd f = extendPotential(a.points, CoarseCloud{rb.points, rb.weights}, sg, o.epsilon, o.p, workers);
+  const Eigen::VectorXd f =
+      extendPotential(a.points, CoarseCloud{rb.points, rb.weights}, sg, o.epsilon, o.p, workers, stop);
+  if (stopped(control)) return cancelledBracket();
   const Eigen::VectorXd g =
-      self ? f : extendPotential(bb.points, CoarseCloud{ra.points, ra.weights}, sf, o.epsilon, o.p, workers);
+      self ? f : extendPotential(bb.points, CoarseCloud{ra.points, ra.weights}, sf, o.epsilon, o.p, workers, stop);
   if (stopped(control)) return cancelledBracket();
   if (!f.allFinite() || !g.allFinite()) {
     r.message = "the potentials carried to every point are not finite";
@@ -163,15 +165,21 @@ struct Kept {
 
 constexpr std::size_t kKept = 4;  // O(n + m) each: a sweep's A–B and both self terms fit
 
+std::mutex keptMutex;
+std::list<Kept> kept;  // most recent first
+
 }  // namespace
+
+void clearEntropicBrackets() {
+  const std::lock_guard<std::mutex> lock(keptMutex);
+  kept.clear();
+}
 
 EntropicBracket bracketEntropicShared(const Cloud& a, const Cloud& b, bool self, const SinkhornOptions& o,
                                       Eigen::Index representatives, const RunControl* control,
                                       kernel::RowWorkers& workers) {
-  static std::mutex mutex;
-  static std::list<Kept> kept;  // most recent first
   {
-    const std::lock_guard<std::mutex> lock(mutex);
+    const std::lock_guard<std::mutex> lock(keptMutex);
     for (auto it = kept.begin(); it != kept.end(); ++it)
       if (it->self == self && it->representatives == representatives && sameSinkhornOptions(it->options, o) &&
           sameCloud(it->a, a) && (self || sameCloud(it->b, b))) {
@@ -181,7 +189,7 @@ EntropicBracket bracketEntropicShared(const Cloud& a, const Cloud& b, bool self,
   }
   EntropicBracket r = bracketEntropic(a, b, self, o, representatives, control, workers);
   if (r.usable) {
-    const std::lock_guard<std::mutex> lock(mutex);
+    const std::lock_guard<std::mutex> lock(keptMutex);
     kept.push_front(Kept{a, self ? Cloud{} : b, self, o, representatives, r});
     if (kept.size() > kKept) kept.pop_back();
   }

@@ -62,6 +62,9 @@ EntropicBracket bracketEntropicShared(const Cloud& a, const Cloud& b, bool self,
                                       Eigen::Index representatives, const RunControl* control,
                                       kernel::RowWorkers& workers);
 
+/// Forgets every kept bracket (tests and benchmarks that time the work itself).
+void clearEntropicBrackets();
+
 /// The bracket's rule and diagnostics under `prefix` (e.g. "" or "ab_").
 void addBracketDetails(nlohmann::json& d, const std::string& prefix, const EntropicBracket& e);
 

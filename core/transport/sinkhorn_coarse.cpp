@@ -43,7 +43,8 @@ CoarseCloud coarsenOnGrid(const Eigen::MatrixX2d& x, const Eigen::VectorXd& w, i
 }
 
 Eigen::VectorXd extendPotential(const Eigen::MatrixX2d& x, const CoarseCloud& c, const Eigen::VectorXd& q,
-                                double epsilon, int p, kernel::RowWorkers& workers) {
+                                double epsilon, int p, kernel::RowWorkers& workers,
+                                const std::atomic<bool>* stop) {
   const double scale = kernel::scaleFor(p, epsilon);
   const kernel::ScaledPoints rows(x, scale), cols(c.x, scale);
   std::vector<double> h = kernel::paddedLogWeights(c.w / c.w.sum());
@@ -51,7 +52,7 @@ Eigen::VectorXd extendPotential(const Eigen::MatrixX2d& x, const CoarseCloud& c,
   // No guess: each row takes its exact maximum as the stabiliser (cheap over a coarse cloud).
   std::vector<double> out(std::size_t(x.rows()));
   std::vector<double> none(std::size_t(x.rows()), -std::numeric_limits<double>::infinity());
-  kernel::logSumExpRows(rows, cols, h, p, none.data(), out.data(), nullptr, workers);
+  kernel::logSumExpRows(rows, cols, h, p, none.data(), out.data(), nullptr, workers, stop);
   Eigen::VectorXd f(x.rows());
   for (Eigen::Index i = 0; i < x.rows(); ++i) f(i) = -epsilon * out[std::size_t(i)];
   return f;

@@ -19,6 +19,7 @@
 #pragma once
 
 #include <Eigen/Core>
+#include <atomic>
 
 #include "base/row_workers.h"
 
@@ -36,8 +37,10 @@ struct CoarseCloud {
 CoarseCloud coarsenOnGrid(const Eigen::MatrixX2d& x, const Eigen::VectorXd& w, int side);
 
 /// The c-transform above: potentials on the points `x` from the coarse cloud `c` holding
-/// potentials `q` (cost units), at ε and p.
+/// potentials `q` (cost units), at ε and p. `stop` (optional) cuts the pass short: a caller
+/// that passes it must check it before using the result.
 Eigen::VectorXd extendPotential(const Eigen::MatrixX2d& x, const CoarseCloud& c, const Eigen::VectorXd& q,
-                                double epsilon, int p, kernel::RowWorkers& workers);
+                                double epsilon, int p, kernel::RowWorkers& workers,
+                                const std::atomic<bool>* stop = nullptr);
 
 }  // namespace barrow

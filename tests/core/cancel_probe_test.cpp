@@ -14,6 +14,7 @@
 #include <thread>
 #include <vector>
 
+#include "measures/entropic_bracket.h"
 #include "measures/evaluate.h"
 #include "measures/registry.h"
 #include "support/test_support.h"
@@ -48,8 +49,9 @@ struct Probe {
 
 // Runs m, raising the cancel flag once the run has used `cancelAt` CPU seconds (never if < 0).
 // The solve cache is emptied first so each run does its own work.
-Probe probeRun(const Measure& m, const Cloud& a, const Cloud& b, double cancelAt) {
+Probe probeRun(const Measure& m, const Cloud& a, const Cloud& b, double cancelAt, const ParamSet& params = {}) {
   SinkhornCache::shared().clear();
+  clearEntropicBrackets();
   Probe out;
   std::atomic<bool> stop{false}, done{false};
   double raisedAt = 0.0;
@@ -61,6 +63,7 @@ Probe probeRun(const Measure& m, const Cloud& a, const Cloud& b, double cancelAt
     return true;
   };
   EvalRequest req;
+  req.params = params;
   req.control = &control;
   const double start = cpuSeconds();
   std::thread watcher([&] {
@@ -99,10 +102,36 @@ TEST(CancelProbeTest, EveryMeasureStopsWithin100msAndReportsRisingProgress) {
     if (whole.cpu < 0.2) continue;  // done before a cancel could matter
     for (double at : {0.5}) {
       const Probe cut = probeRun(*m, a, b, at * whole.cpu);
-      if (cut.afterCancel < 0) continue;  // finished before the flag was raised
+      // Half-way through by CPU, so the run must still be going: a run that ended before the
+      // flag was raised would leave the measure untested, which is a failure, not a pass.
+      ASSERT_GE(cut.afterCancel, 0.0) << m->id() << " finished before the cancel flag was raised at " << at;
       EXPECT_LE(cut.afterCancel, 0.1) << m->id() << " cancelled at " << at << " of its run took "
                                       << cut.afterCancel << " s to stop";
       EXPECT_EQ(cut.status, Status::Cancelled) << m->id() << " at " << at;
+    }
+  }
+}
+
+// The same for entropic and sinkhorn forced into bracket mode (measures/entropic_bracket.h),
+// the path they take above 3·10^4 points: every stage (quantising, the solve between the
+// representatives, carrying the potentials, the pass over all pairs) stops within 100 ms.
+TEST(CancelProbeTest, BracketedEntropicMeasuresStopWithin100ms) {
+  const Cloud a = uniformSquare(10000, 0.0, 5), b = uniformSquare(10000, 0.5, 6);
+  for (const char* id : {"entropic", "sinkhorn"}) {
+    SCOPED_TRACE(id);
+    const Measure* m = MeasureRegistry::instance().find(id);
+    ASSERT_NE(m, nullptr);
+    ParamSet params;
+    params.set(std::string(id) + ".exact_limit", "0");
+    const Probe whole = probeRun(*m, a, b, -1.0, params);
+    ASSERT_EQ(whole.status, Status::Bracketed);
+    for (std::size_t k = 1; k < whole.fractions.size(); ++k) ASSERT_GE(whole.fractions[k], whole.fractions[k - 1]);
+    for (double at : {0.2, 0.5, 0.8}) {
+      const Probe cut = probeRun(*m, a, b, at * whole.cpu, params);
+      ASSERT_GE(cut.afterCancel, 0.0) << id << " finished before the cancel flag was raised at " << at;
+      EXPECT_LE(cut.afterCancel, 0.1) << id << " cancelled at " << at << " of its run took " << cut.afterCancel
+                                      << " s to stop";
+      EXPECT_EQ(cut.status, Status::Cancelled) << id << " at " << at;
     }
   }
 }
