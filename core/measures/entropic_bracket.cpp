@@ -204,7 +204,8 @@ void addBracketDetails(nlohmann::json& d, const std::string& prefix, const Entro
   d[prefix + "high_rule"] = "rounded-coupling bound between the representatives + lift (p = 2: eA^2 + eB^2; "
                             "p = 1: per block of cells min(mean distances, sqrt(d^2 + mean squares) - d), priced on "
                             "the rounded plan)";
-  d[prefix + "low_rule"] = "weak duality: <a,f> + <b,g> - eps*(mass of the Gibbs plan - 1), one pass over all pairs";
+  d[prefix + "low_rule"] = "weak duality: <a,f> + <b,g> at the carried f and g = its c-transform on all points "
+                           "(one pass over all pairs)";
   d[prefix + "representatives_a"] = e.representativesA;
   d[prefix + "representatives_b"] = e.representativesB;
   d[prefix + "quantised_value"] = e.quantisedValue;

@@ -11,10 +11,10 @@
 //     lift = eA² + eB² exactly for p = 2 (cross terms vanish about the cell means), e = Σ a_i
 //     |x_i − q(x_i)|^p; for p = 1 at most eA + eB (triangle inequality), and block by block at
 //     most sqrt(d² + V_r + V_s) − d (Jensen), priced on the rounded quantised plan.
-//   low = the dual objective on all points (weak duality, entropic_bounds.h) at the potentials
-//     carried from the quantised solve to every point by a c-transform (sinkhorn_coarse.h).
-//     Near the optimum the dual's gap is second order in the potentials' error, so one pass over
-//     the pairs gives a tight low.
+//   low = the dual objective on all points (weak duality, entropic_bounds.h) at f, the potential
+//     carried from the quantised solve to every point of A by a c-transform (sinkhorn_coarse.h),
+//     and the c-transform of f on all of B. Near the optimum the dual's gap is second order in
+//     the potentials' error, so one pass over the pairs gives a tight low.
 // Cost: the quantised solve (k² per iteration) and one pass over the n·m pairs.
 #pragma once
 

@@ -68,17 +68,14 @@ EntropicDualBound entropicDualBound(const Eigen::MatrixX2d& x, const Eigen::Vect
   const double scale = kernel::scaleFor(p, epsilon);
   const ScaledPoints xs(x, scale), ys(y, scale);
   std::vector<double> out, ratio;
-  if (!rowPass(xs, ys, kernel::paddedLogWeights(b), f, g, epsilon, p, out, ratio, workers, stop)) return r;
-  double mass = 0.0, error = 0.0;
-  for (Eigen::Index i = 0; i < a.size(); ++i)
-    if (a(i) > 0) {
-      mass += a(i) * ratio[std::size_t(i)];
-      error += a(i) * std::abs(ratio[std::size_t(i)] - 1.0);
-    }
-  const double magnitude = a.dot(f.cwiseAbs()) + b.dot(g.cwiseAbs()) + epsilon * (1.0 + mass);
-  r.mass = mass;
-  r.rowError = error;
-  r.low = a.dot(f) + b.dot(g) - epsilon * (mass - 1.0) - allowance(x.rows(), y.rows(), magnitude);
+  // g' = the c-transform of f: the columns of the Gibbs plan of (f, g') sum to b exactly, so
+  // its mass is 1 and the dual objective is <a,f> + <b,g'>.
+  if (!rowPass(ys, xs, kernel::paddedLogWeights(a), g, f, epsilon, p, out, ratio, workers, stop)) return r;
+  Eigen::VectorXd best(y.rows());
+  for (Eigen::Index j = 0; j < y.rows(); ++j) best(j) = b(j) > 0 ? -epsilon * out[std::size_t(j)] : 0.0;
+  if (!best.allFinite()) return r;
+  const double magnitude = a.dot(f.cwiseAbs()) + b.dot(best.cwiseAbs()) + epsilon;
+  r.low = a.dot(f) + b.dot(best) - allowance(x.rows(), y.rows(), magnitude);
   r.complete = std::isfinite(r.low);
   return r;
 }

@@ -4,7 +4,11 @@
 // Lower bound, weak duality (Peyré & Cuturi 2019, Prop. 4.4 and Rem. 4.22 (mem)): for every
 // finite f, g,
 //   L(f, g) = ⟨a, f⟩ + ⟨b, g⟩ − ε (M − 1),  M = Σ_ij a_i b_j exp((f_i + g_j − C_ij)/ε),
-// is at most OT_ε(a, b). One pass over the pairs.
+// is at most OT_ε(a, b). For a given f it is largest at g = the c-transform of f, where M = 1
+// (the semi-dual); the bound is taken there. One pass over the pairs. That choice matters:
+// with g carried from elsewhere, a few points whose potentials are far off (e.g. points of
+// tiny weight far from every representative) can make M astronomically large, while at the
+// c-transform their effect is weighted by their mass.
 //
 // Upper bound: the cost of a feasible coupling, made from the Gibbs plan of (f, g) by the
 // rounding of Altschuler, Weed & Rigollet 2017 (Alg. 2, mem). g is first replaced by the
@@ -34,9 +38,7 @@ namespace barrow {
 
 struct EntropicDualBound {
   bool complete = false;  // false: the pass was stopped (value unusable)
-  double low = 0.0;       // L(f, g) minus the rounding allowance
-  double mass = 0.0;      // M, the Gibbs plan's total mass
-  double rowError = 0.0;  // L1 error of the plan's row marginals
+  double low = 0.0;       // L(f, c-transform of f) minus the rounding allowance
 };
 
 struct EntropicRoundedBound {
@@ -49,7 +51,8 @@ struct EntropicRoundedBound {
   Eigen::VectorXd rowPotential, colPotential;
 };
 
-/// L(f, g) as above. Pre: a, b normalised (sum 1, non-negative), f, g finite, p ∈ {1, 2}.
+/// L(f, c-transform of f) as above; g serves only as the pass's stabiliser (a guess of that
+/// c-transform). Pre: a, b normalised (sum 1, non-negative), f, g finite, p ∈ {1, 2}.
 /// `stop` (optional) cuts the pass short: then complete is false.
 EntropicDualBound entropicDualBound(const Eigen::MatrixX2d& x, const Eigen::VectorXd& a, const Eigen::MatrixX2d& y,
                                     const Eigen::VectorXd& b, const Eigen::VectorXd& f, const Eigen::VectorXd& g,
