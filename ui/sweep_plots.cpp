@@ -334,14 +334,18 @@ void SweepPlots::setNormalised(bool on) {
 void SweepPlots::fitAxisLabels() {
   // The left labels run up the axis: a label longer than its pane is tall gets clipped (seen in
   // a 1000×700 window), so the short form is used when the long one does not fit.
+  // Each pane's share of the height is its row's stretch factor (set above, draggable).
   const int spare = std::max(0, plot_->height() - 60);  // less the bottom axis and margins
-  const auto pick = [&](QCPAxis* axis, double share, const QString& full, const QString& shortForm) {
+  const QList<double> rows = plot_->plotLayout()->rowStretchFactors();
+  const double total = rows.size() >= 2 && rows[0] + rows[1] > 0 ? rows[0] + rows[1] : 1.0;
+  const auto pick = [&](QCPAxis* axis, int row, const QString& full, const QString& shortForm) {
+    const double share = rows.size() > row ? rows[row] / total : 0.5;
     const QFontMetrics fm(axis->labelFont());
     axis->setLabel(fm.horizontalAdvance(full) + 8 <= int(share * spare) ? full : shortForm);
   };
-  pick(values_->axis(QCPAxis::atLeft), 0.6, normalised_ ? tr("D (normalised)") : tr("D"),
+  pick(values_->axis(QCPAxis::atLeft), 0, normalised_ ? tr("D (normalised)") : tr("D"),
        normalised_ ? tr("D (norm.)") : tr("D"));
-  pick(slopes_->axis(QCPAxis::atLeft), 0.4, normalised_ ? tr("dD/dθ (normalised)") : tr("dD/dθ"),
+  pick(slopes_->axis(QCPAxis::atLeft), 1, normalised_ ? tr("dD/dθ (normalised)") : tr("dD/dθ"),
        normalised_ ? tr("dD/dθ (n.)") : tr("dD/dθ"));
 }
 

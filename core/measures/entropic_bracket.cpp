@@ -121,11 +121,21 @@ EntropicBracket bracketEntropic(const Cloud& a, const Cloud& b, bool self, const
   // Potentials on every point: c-transforms of the quantised ones; then one pass for low.
   if (control && control->shouldStop(0.5)) return cancelledBracket();
   const Eigen::VectorXd wa = a.normalizedWeights(), wb = bb.normalizedWeights();
+  // Each point's own representative's potential is close to its carried one: the stabiliser.
+  const auto nearOf = [](const Quantisation& q, const Eigen::VectorXd& v) {
+    Eigen::VectorXd near(Eigen::Index(q.cellOf.size()));
+    for (std::size_t i = 0; i < q.cellOf.size(); ++i)
+      near(Eigen::Index(i)) = q.cellOf[i] >= 0 ? v(q.cellOf[i]) : NAN;
+    return near;
+  };
+  const Eigen::VectorXd nearA = nearOf(qa, sf);
   const Eigen::VectorXd f =
-      extendPotential(a.points, CoarseCloud{rb.points, rb.weights}, sg, o.epsilon, o.p, workers, stop);
+      extendPotential(a.points, CoarseCloud{rb.points, rb.weights}, sg, o.epsilon, o.p, workers, stop, &nearA);
   if (stopped(control)) return cancelledBracket();
-  const Eigen::VectorXd g =
-      self ? f : extendPotential(bb.points, CoarseCloud{ra.points, ra.weights}, sf, o.epsilon, o.p, workers, stop);
+  const Eigen::VectorXd nearB = self ? nearA : nearOf(qb, sg);
+  const Eigen::VectorXd g = self ? f
+                                 : extendPotential(bb.points, CoarseCloud{ra.points, ra.weights}, sf, o.epsilon, o.p,
+                                                   workers, stop, &nearB);
   if (stopped(control)) return cancelledBracket();
   if (!f.allFinite() || !g.allFinite()) {
     r.message = "the potentials carried to every point are not finite";

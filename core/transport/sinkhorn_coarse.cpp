@@ -44,15 +44,19 @@ CoarseCloud coarsenOnGrid(const Eigen::MatrixX2d& x, const Eigen::VectorXd& w, i
 
 Eigen::VectorXd extendPotential(const Eigen::MatrixX2d& x, const CoarseCloud& c, const Eigen::VectorXd& q,
                                 double epsilon, int p, kernel::RowWorkers& workers,
-                                const std::atomic<bool>* stop) {
+                                const std::atomic<bool>* stop, const Eigen::VectorXd* near) {
   const double scale = kernel::scaleFor(p, epsilon);
   const kernel::ScaledPoints rows(x, scale), cols(c.x, scale);
   std::vector<double> h = kernel::paddedLogWeights(c.w / c.w.sum());
   for (Eigen::Index j = 0; j < q.size(); ++j) h[std::size_t(j)] += q(j) / epsilon;
-  // No guess: each row takes its exact maximum as the stabiliser (cheap over a coarse cloud).
+  // Without an estimate each row takes its exact maximum as the stabiliser, after a first sum
+  // that leaves the range (cheap over a coarse cloud, not over 10^5 points × 8 192 cells).
   std::vector<double> out(std::size_t(x.rows()));
-  std::vector<double> none(std::size_t(x.rows()), -std::numeric_limits<double>::infinity());
-  kernel::logSumExpRows(rows, cols, h, p, none.data(), out.data(), nullptr, workers, stop);
+  std::vector<double> guess(std::size_t(x.rows()), -std::numeric_limits<double>::infinity());
+  if (near && near->size() == x.rows())
+    for (Eigen::Index i = 0; i < x.rows(); ++i)
+      if (std::isfinite((*near)(i))) guess[std::size_t(i)] = -(*near)(i) / epsilon;
+  kernel::logSumExpRows(rows, cols, h, p, guess.data(), out.data(), nullptr, workers, stop);
   Eigen::VectorXd f(x.rows());
   for (Eigen::Index i = 0; i < x.rows(); ++i) f(i) = -epsilon * out[std::size_t(i)];
   return f;

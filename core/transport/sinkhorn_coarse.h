@@ -38,9 +38,12 @@ CoarseCloud coarsenOnGrid(const Eigen::MatrixX2d& x, const Eigen::VectorXd& w, i
 
 /// The c-transform above: potentials on the points `x` from the coarse cloud `c` holding
 /// potentials `q` (cost units), at ε and p. `stop` (optional) cuts the pass short: a caller
-/// that passes it must check it before using the result.
+/// that passes it must check it before using the result. `near` (optional, cost units): an
+/// estimate of the result per point (e.g. the coarse potential of the point's own cell); it
+/// only stabilises the sums, so a row it leaves out of range is summed again exactly, but a
+/// good one saves that second sum for every row.
 Eigen::VectorXd extendPotential(const Eigen::MatrixX2d& x, const CoarseCloud& c, const Eigen::VectorXd& q,
                                 double epsilon, int p, kernel::RowWorkers& workers,
-                                const std::atomic<bool>* stop = nullptr);
+                                const std::atomic<bool>* stop = nullptr, const Eigen::VectorXd* near = nullptr);
 
 }  // namespace barrow
